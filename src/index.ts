@@ -1,0 +1,14 @@
+/**
+ * passbudget public library API. Every CLI command is a call a user can make from here.
+ */
+export * from './errors.js';
+export * from './orbit/time.js';
+export * from './elements/index.js';
+export * from './orbit/index.js';
+export * from './geometry/index.js';
+export * from './passes/index.js';
+export * from './models/index.js';
+export * from './budget/index.js';
+export * from './scenario/index.js';
+export * from './analysis/index.js';
+export * from './output/index.js';
