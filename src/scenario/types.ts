@@ -1,0 +1,45 @@
+import type { ElementSet } from '../elements/types.js';
+import type { Station } from '../geometry/types.js';
+import type { Climate, LinkSpec, WeatherCase } from '../budget/types.js';
+
+/** A default the loader applied, listed in every run's outputs. */
+export interface AppliedDefault {
+  /** Scenario path, e.g. `stations[1].climate.rain_height_km`. */
+  path: string;
+  value: string;
+  /** Why / where the value comes from (model name, "(from memory)" where so). */
+  reason: string;
+}
+
+export interface ScenarioSatellite { name: string; elements: ElementSet; elementsFile: string }
+
+export interface ScenarioStation {
+  station: Station;
+  climate: Climate;
+  /** Priority for the fixed-priority network policy (1 = highest). */
+  priority: number;
+}
+
+export type NetworkPolicy = { kind: 'best-margin' } | { kind: 'priority'; order: string[] };
+
+/** The scenario with every reference and unit resolved: what the run, mask and rate commands consume. */
+export interface ResolvedScenario {
+  name: string;
+  /** Absolute path of the scenario file, and the raw bytes' SHA-256 together with element files'. */
+  file: string;
+  inputsSha256: string;
+  window: { startS: number; endS: number; stepS: number };
+  satellites: ScenarioSatellite[];
+  stations: ScenarioStation[];
+  /** One resolved link per (satellite, station, link name). */
+  links: LinkSpec[];
+  weatherCases: WeatherCase[];
+  network: NetworkPolicy;
+  /** Mask finder: fraction of steps that must meet the margin (1 = all). */
+  maskFraction: number;
+  /** Rate finder: bit rates to try (b/s) per fixed-rate link name. */
+  rateCandidatesBps: number[];
+  output: { dir: string | null; steps: boolean };
+  defaultsApplied: AppliedDefault[];
+  warnings: string[];
+}
