@@ -1,1 +1,6 @@
 export * from './types.js';
+export * from './checksum.js';
+export * from './catalog.js';
+export * from './tle.js';
+export * from './omm.js';
+export * from './load.js';

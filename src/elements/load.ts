@@ -1,0 +1,45 @@
+import { readFileSync } from 'node:fs';
+import { InputError } from '../errors.js';
+import { parseOmmJson } from './omm.js';
+import { parseTleText } from './tle.js';
+import type { ElementSet } from './types.js';
+
+/**
+ * Parse element sets from text, detecting the format by content: text whose
+ * first non-blank character is '{' or '[' is OMM JSON, anything else TLE/3LE.
+ */
+export function parseElementsText(text: string, fileLabel: string): ElementSet[] {
+  const body = text.replace(/^\uFEFF/, '');
+  const first = body.trimStart()[0];
+  const sets = first === '{' || first === '[' ? parseOmmJson(body, fileLabel) : parseTleText(body, fileLabel);
+  if (sets.length === 0) throw new InputError(`${fileLabel}:1:1: no element sets found (allowed TLE/3LE lines or OMM JSON)`);
+  return sets;
+}
+
+/** Read and parse an element file (TLE/3LE or OMM JSON). */
+export function loadElementsFile(path: string): ElementSet[] {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code ?? 'read error';
+    throw new InputError(`${path}: cannot read the elements file (${code}; allowed a readable TLE/3LE or OMM JSON file)`);
+  }
+  return parseElementsText(text, path);
+}
+
+/** Days between window start and epoch beyond which a warning is given. */
+export const EPOCH_WARNING_DAYS = 7;
+
+/**
+ * Warn (never fail) when the analysis window starts more than 7 days from the
+ * element epoch: the along-track error of SGP4 element sets for LEO grows by
+ * roughly a few km per day (common practice, from memory).
+ */
+export function epochWarning(elements: ElementSet, windowStartS: number): string | null {
+  const days = (windowStartS - elements.epochUnixS) / 86_400;
+  if (Math.abs(days) <= EPOCH_WARNING_DAYS) return null;
+  const side = days > 0 ? 'after' : 'before';
+  return `warning: ${elements.name} (${elements.catalogNumber}): window starts ${Math.abs(days).toFixed(1)} days ${side} the element epoch `
+    + `(more than ${EPOCH_WARNING_DAYS} d; positions may be off by several km per day, from memory)`;
+}
