@@ -1,0 +1,170 @@
+/**
+ * Streaming per-pass summary of one link over one pass, for every weather
+ * case. Fed one step at a time in time order; keeps only fixed-size state
+ * (sums, extremes, one fit-time counter per adaptive mode), never the steps.
+ *
+ * A step at time t with interval Δt stands for [t, t + Δt). Volumes:
+ *   - fixed-rate link: R_b × usable time;
+ *   - adaptive link, `fixedVolumeBits`: the best single mode held for the whole
+ *     pass, max_i R_s η_i × (time mode i fits) (fit rule in modes.ts);
+ *   - adaptive link, `adaptiveVolumeBits`: Σ (engine's R_s η at the step) × Δt
+ *     over usable steps (PHYSICS.md §12).
+ */
+import type { CaseBudget, LinkSpec, StepBudget, WeatherCase } from '../budget/types.js';
+import type { PassCaseSummary, PassLinkSummary } from './types.js';
+import { bestConstantMode, modeRatesBps, modeThresholdsDB } from './modes.js';
+import { checkVerdictRule, DEFAULT_VERDICT_RULE, judgePass, type VerdictRule } from './verdict.js';
+
+export interface PassInfo {
+  passId: string;
+  satellite: string;
+  station: string;
+  aosS: number;
+  tcaS: number;
+  losS: number;
+  maxElevationDeg: number;
+  /** Time above the mask (s): the verdict's reference. */
+  durationS: number;
+  clippedStart: boolean;
+  clippedEnd: boolean;
+}
+
+export interface PassAccumulatorOptions {
+  link: LinkSpec;
+  pass: PassInfo;
+  /** Weather cases to summarise, by name; each step must carry a CaseBudget of that name. */
+  weatherCases: readonly (WeatherCase | string)[];
+  verdictRule?: VerdictRule;
+}
+
+export interface PassAccumulator {
+  add(timeS: number, dtS: number, elevationDeg: number, step: StepBudget): void;
+  finish(): PassLinkSummary;
+}
+
+interface CaseState {
+  weather: string;
+  /** Index of this case in the last step's `cases`, to avoid a search per step. */
+  hint: number;
+  usableStartS: number | null;
+  usableEndS: number | null;
+  usableS: number;
+  minMarginDB: number;
+  maxMarginDB: number;
+  marginTimeSum: number;
+  marginSum: number;
+  marginSteps: number;
+  marginTimeS: number;
+  adaptiveBits: number;
+  modeFitS: Float64Array;
+}
+
+function findCase(step: StepBudget, state: CaseState): CaseBudget {
+  const hinted = step.cases[state.hint];
+  if (hinted && hinted.weather === state.weather) return hinted;
+  const i = step.cases.findIndex((c) => c.weather === state.weather);
+  if (i < 0) throw new Error(`pass accumulator: step at ${step.time_s} s has no weather case "${state.weather}"`);
+  state.hint = i;
+  return step.cases[i];
+}
+
+export function createPassAccumulator(options: PassAccumulatorOptions): PassAccumulator {
+  const { link, pass } = options;
+  const rule = checkVerdictRule(options.verdictRule ?? DEFAULT_VERDICT_RULE);
+  const adaptive = link.modcod.kind === 'adaptive';
+  const thresholds = modeThresholdsDB(link);
+  const rates = modeRatesBps(link);
+  const states: CaseState[] = options.weatherCases.map((w, hint) => ({
+    weather: typeof w === 'string' ? w : w.name,
+    hint,
+    usableStartS: null,
+    usableEndS: null,
+    usableS: 0,
+    minMarginDB: Infinity,
+    maxMarginDB: -Infinity,
+    marginTimeSum: 0,
+    marginSum: 0,
+    marginSteps: 0,
+    marginTimeS: 0,
+    adaptiveBits: 0,
+    modeFitS: new Float64Array(thresholds.length),
+  }));
+  let steps = 0;
+  let lastTimeS = -Infinity;
+  let finished = false;
+
+  return {
+    add(timeS, dtS, _elevationDeg, step) {
+      if (finished) throw new Error(`pass accumulator ${pass.passId}: add() after finish()`);
+      if (timeS < lastTimeS) throw new Error(`pass accumulator ${pass.passId}: step at ${timeS} s is before ${lastTimeS} s`);
+      lastTimeS = timeS;
+      steps++;
+      for (const s of states) {
+        const c = findCase(step, s);
+        const m = c.margin_db;
+        if (!Number.isNaN(m)) {
+          if (m < s.minMarginDB) s.minMarginDB = m;
+          if (m > s.maxMarginDB) s.maxMarginDB = m;
+          s.marginTimeSum += m * dtS;
+          s.marginTimeS += dtS;
+          s.marginSum += m;
+          s.marginSteps++;
+        }
+        if (c.usable) {
+          if (s.usableStartS === null) s.usableStartS = timeS;
+          s.usableEndS = timeS;
+          s.usableS += dtS;
+          if (adaptive) s.adaptiveBits += c.information_rate_bps * dtS;
+        }
+        if (adaptive) {
+          const es = c.es_over_n0_db;
+          for (let i = 0; i < thresholds.length; i++) if (es >= thresholds[i]) s.modeFitS[i] += dtS;
+        }
+      }
+    },
+    finish() {
+      finished = true;
+      const cases: PassCaseSummary[] = states.map((s) => {
+        let fixedVolumeBits: number;
+        if (link.modcod.kind === 'fixed') {
+          fixedVolumeBits = link.modcod.bitRateBps * s.usableS;
+        } else {
+          const best = bestConstantMode(rates, s.modeFitS);
+          fixedVolumeBits = best < 0 ? 0 : rates[best] * s.modeFitS[best];
+        }
+        const { verdict, verdictRule } = judgePass(s.usableS, pass.durationS, s.usableStartS !== null, rule);
+        // Time-weighted mean; falls back to the plain mean if every Δt was 0, NaN without steps.
+        const meanMarginDB = s.marginTimeS > 0 ? s.marginTimeSum / s.marginTimeS : s.marginSteps > 0 ? s.marginSum / s.marginSteps : NaN;
+        return {
+          weather: s.weather,
+          usableStartS: s.usableStartS,
+          usableEndS: s.usableEndS,
+          usableDurationS: s.usableS,
+          minMarginDB: s.marginSteps > 0 ? s.minMarginDB : NaN,
+          meanMarginDB,
+          maxMarginDB: s.marginSteps > 0 ? s.maxMarginDB : NaN,
+          fixedVolumeBits,
+          adaptiveVolumeBits: adaptive ? s.adaptiveBits : null,
+          verdict,
+          verdictRule,
+        };
+      });
+      return {
+        passId: pass.passId,
+        satellite: pass.satellite,
+        station: pass.station,
+        link: link.name,
+        direction: link.direction,
+        aosS: pass.aosS,
+        tcaS: pass.tcaS,
+        losS: pass.losS,
+        maxElevationDeg: pass.maxElevationDeg,
+        durationS: pass.durationS,
+        clippedStart: pass.clippedStart,
+        clippedEnd: pass.clippedEnd,
+        steps,
+        cases,
+      };
+    },
+  };
+}

@@ -1,0 +1,127 @@
+/**
+ * Data-rate finder for fixed-rate links. A fixed-size histogram of time
+ * against C/N0 (bins of `binDB` over [minDBHz, maxDBHz)) is filled per step;
+ * a step closes at bit rate R when (PHYSICS.md §10)
+ *   C/N0 − 10 log10 R − (Eb/N0)_required − L_implementation ≥ required margin.
+ * A bin counts as closing only when its lower edge meets that threshold, so
+ * the histogram never counts a step that would not close; it may miss steps in
+ * the one bin that straddles the threshold (at most `binDB` of conservatism).
+ * C/N0 below minDBHz never closes; above maxDBHz counts as the top bin's lower edge.
+ */
+import { InputError } from '../errors.js';
+import type { RateTradePoint } from './types.js';
+
+export interface RateHistogramOptions {
+  binDB?: number;
+  minDBHz?: number;
+  maxDBHz?: number;
+  station?: string;
+  link?: string;
+  weather?: string;
+}
+
+export interface RateHistogram {
+  readonly binDB: number;
+  readonly minDBHz: number;
+  readonly bins: number;
+  readonly station: string;
+  readonly link: string;
+  readonly weather: string;
+  /** Lower edge of bin k (dBHz), rounded to 1e-9 dB. */
+  edgeDBHz(k: number): number;
+  /** Time per bin (s). */
+  readonly timeS: Float64Array;
+  /** Time with C/N0 below minDBHz or NaN (s): never closes. */
+  readonly underflowS: number;
+  add(cOverN0DBHz: number, dtS: number): void;
+}
+
+export function createRateHistogram(options: RateHistogramOptions = {}): RateHistogram {
+  const binDB = options.binDB ?? 0.01;
+  const minDBHz = options.minDBHz ?? 0;
+  const maxDBHz = options.maxDBHz ?? 150;
+  if (!(binDB > 0 && binDB <= 1)) throw new InputError(`rate finder binDB: ${binDB} is out of range (allowed > 0 and ≤ 1 dB)`);
+  if (!(Number.isFinite(minDBHz) && Number.isFinite(maxDBHz) && maxDBHz > minDBHz)) {
+    throw new InputError(`rate finder C/N0 range: [${minDBHz}, ${maxDBHz}] dBHz is empty (allowed finite min < max)`);
+  }
+  const bins = Math.ceil((maxDBHz - minDBHz) / binDB - 1e-9);
+  const edgeDBHz = (k: number) => Math.round((minDBHz + k * binDB) * 1e9) / 1e9;
+  const timeS = new Float64Array(bins);
+  let underflowS = 0;
+  return {
+    binDB,
+    minDBHz,
+    bins,
+    station: options.station ?? '',
+    link: options.link ?? '',
+    weather: options.weather ?? '',
+    edgeDBHz,
+    timeS,
+    get underflowS() {
+      return underflowS;
+    },
+    add(cOverN0DBHz, dtS) {
+      if (!(dtS > 0)) return;
+      if (!(cOverN0DBHz >= minDBHz)) {
+        underflowS += dtS;
+        return;
+      }
+      let k = Math.min(bins - 1, Math.floor((cOverN0DBHz - minDBHz) / binDB));
+      // Settle rounding against the reported edges: the lower edge must not exceed the value.
+      if (k + 1 < bins && edgeDBHz(k + 1) <= cOverN0DBHz) k++;
+      if (k > 0 && edgeDBHz(k) > cOverN0DBHz) k--;
+      timeS[k] += dtS;
+    },
+  };
+}
+
+export interface RateRequirement {
+  requiredEbN0DB: number;
+  implementationLossDB: number;
+  requiredMarginDB: number;
+}
+
+/** C/N0 (dBHz) a step needs to close at `bitRateBps`. */
+export function closingCOverN0DBHz(bitRateBps: number, req: RateRequirement): number {
+  return 10 * Math.log10(bitRateBps) + req.requiredEbN0DB + req.implementationLossDB + req.requiredMarginDB;
+}
+
+/** Daily volume R × closing time / days and closing minutes per day, for each candidate rate. */
+export function rateTrade(hist: RateHistogram, req: RateRequirement, ratesBps: readonly number[], days: number): RateTradePoint[] {
+  if (!(days > 0)) throw new InputError(`rate trade days: ${days} is out of range (allowed > 0)`);
+  for (const r of ratesBps) {
+    if (!(r > 0 && Number.isFinite(r))) throw new InputError(`rate finder candidate rates: ${r} b/s is not a rate (allowed finite numbers > 0)`);
+  }
+  const above = new Float64Array(hist.bins + 1);
+  for (let k = hist.bins - 1; k >= 0; k--) above[k] = above[k + 1] + hist.timeS[k];
+  return ratesBps.map((bitRateBps) => {
+    const need = closingCOverN0DBHz(bitRateBps, req);
+    // First bin whose lower edge meets the threshold (binary search on the monotone edges).
+    let lo = 0;
+    let hi = hist.bins;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (hist.edgeDBHz(mid) >= need) hi = mid;
+      else lo = mid + 1;
+    }
+    const closingS = above[lo];
+    return {
+      station: hist.station,
+      link: hist.link,
+      weather: hist.weather,
+      bitRateBps,
+      dailyVolumeBits: (bitRateBps * closingS) / days,
+      usableMinutesPerDay: closingS / 60 / days,
+    };
+  });
+}
+
+/** The point with the largest daily volume (ties: the lower rate); null when none delivers anything. */
+export function bestRate(points: readonly RateTradePoint[]): RateTradePoint | null {
+  let best: RateTradePoint | null = null;
+  for (const p of points) {
+    if (!(p.dailyVolumeBits > 0)) continue;
+    if (!best || p.dailyVolumeBits > best.dailyVolumeBits || (p.dailyVolumeBits === best.dailyVolumeBits && p.bitRateBps < best.bitRateBps)) best = p;
+  }
+  return best;
+}
