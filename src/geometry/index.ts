@@ -1,1 +1,6 @@
 export * from './types.js';
+export * from './wgs84.js';
+export * from './refraction.js';
+export * from './mask.js';
+export * from './doppler.js';
+export * from './station.js';
