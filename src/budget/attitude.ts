@@ -1,0 +1,95 @@
+/**
+ * Spacecraft attitude and antenna mounting: the angle at the spacecraft between
+ * its antenna boresight and the direction to the station, per step, from the
+ * TEME vectors of a GeometrySample. No allocation: module-level scratch vectors.
+ *
+ * Frames:
+ * - TEME: SGP4 output frame. The station's ECEF position is rotated into TEME
+ *   by GMST about +Z (the inverse of r_ECEF = R3(GMST) r_TEME; polar motion neglected,
+ *   as in the geometry stage).
+ * - Nadir-pointing body frame (our definition, documented in types.ts):
+ *   +Z toward geocentric nadir (−r̂_sat), +X along the component of the TEME
+ *   velocity perpendicular to +Z, +Y = Z × X. Geocentric (not geodetic) nadir,
+ *   so against the SMAD spherical-Earth off-nadir angle the difference is the
+ *   ellipsoid's (up to ~0.2° between geocentric and geodetic verticals).
+ */
+import type { GeometrySample } from '../geometry/types.js';
+import type { SpacecraftPointing } from './types.js';
+
+const RAD = Math.PI / 180;
+
+const stnTeme = new Float64Array(3);
+const los = new Float64Array(3);
+
+/** Station position in TEME (km): ECEF rotated by −GMST about Z. */
+export function stationTemeKm(sample: GeometrySample, out: Float64Array = stnTeme): Float64Array {
+  const g = sample.gmstRad;
+  const c = Math.cos(g), s = Math.sin(g);
+  const e = sample.stationEcefKm;
+  out[0] = c * e[0] - s * e[1];
+  out[1] = s * e[0] + c * e[1];
+  out[2] = e[2];
+  return out;
+}
+
+/** Unit line of sight from spacecraft to station in TEME, written into `out`. */
+export function lineOfSightTeme(sample: GeometrySample, out: Float64Array = los): Float64Array {
+  const st = stationTemeKm(sample);
+  const r = sample.satPositionTemeKm;
+  const x = st[0] - r[0], y = st[1] - r[1], z = st[2] - r[2];
+  const n = Math.hypot(x, y, z);
+  out[0] = x / n; out[1] = y / n; out[2] = z / n;
+  return out;
+}
+
+/** Angle (deg) between two unit vectors, robust at small angles (atan2 of |a×b| and a·b). */
+export function angleBetweenDeg(ax: number, ay: number, az: number, bx: number, by: number, bz: number): number {
+  const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
+  return Math.atan2(Math.hypot(cx, cy, cz), ax * bx + ay * by + az * bz) / RAD;
+}
+
+/** Normalised copy of a body-frame or TEME boresight; rejects the zero vector. */
+export function unitVector(v: readonly [number, number, number]): [number, number, number] {
+  const n = Math.hypot(v[0], v[1], v[2]);
+  return [v[0] / n, v[1] / n, v[2] / n];
+}
+
+/**
+ * Geometric off-boresight angle (deg) of the station seen from the spacecraft
+ * antenna. `boresight` is the unit boresight (body frame for nadir, TEME for
+ * inertial; ignored for tracking, which is 0° by definition: ideal tracking).
+ * The attitude error is not included here: the engine turns it into a
+ * separate pointing loss.
+ */
+export function spacecraftOffBoresightDeg(
+  pointing: SpacecraftPointing,
+  boresight: readonly number[],
+  sample: GeometrySample,
+): number {
+  if (pointing.kind === 'tracking') return 0;
+  const u = lineOfSightTeme(sample);
+  if (pointing.kind === 'inertial') {
+    return angleBetweenDeg(boresight[0], boresight[1], boresight[2], u[0], u[1], u[2]);
+  }
+  // Nadir-pointing body frame in TEME.
+  const r = sample.satPositionTemeKm, v = sample.satVelocityTemeKmS;
+  const rn = Math.hypot(r[0], r[1], r[2]);
+  const zx = -r[0] / rn, zy = -r[1] / rn, zz = -r[2] / rn;
+  const vz = v[0] * zx + v[1] * zy + v[2] * zz;
+  let xx = v[0] - vz * zx, xy = v[1] - vz * zy, xz = v[2] - vz * zz;
+  const xn = Math.hypot(xx, xy, xz);
+  xx /= xn; xy /= xn; xz /= xn;
+  const yx = zy * xz - zz * xy, yy = zz * xx - zx * xz, yz = zx * xy - zy * xx;
+  const bx = boresight[0] * xx + boresight[1] * yx + boresight[2] * zx;
+  const by = boresight[0] * xy + boresight[1] * yy + boresight[2] * zy;
+  const bz = boresight[0] * xz + boresight[1] * yz + boresight[2] * zz;
+  return angleBetweenDeg(bx, by, bz, u[0], u[1], u[2]);
+}
+
+/** Angle (deg) between two directions given as (azimuth, elevation) in degrees (haversine form). */
+export function azElSeparationDeg(az1Deg: number, el1Deg: number, az2Deg: number, el2Deg: number): number {
+  const dEl = (el2Deg - el1Deg) * RAD, dAz = (az2Deg - az1Deg) * RAD;
+  const s1 = Math.sin(dEl / 2), s2 = Math.sin(dAz / 2);
+  const h = s1 * s1 + Math.cos(el1Deg * RAD) * Math.cos(el2Deg * RAD) * s2 * s2;
+  return 2 * Math.asin(Math.sqrt(Math.min(1, Math.max(0, h)))) / RAD;
+}
