@@ -1,1 +1,20 @@
-export {};
+/** Pure physics models, one file per published model (see each file for its source). */
+export { checkAtLeast, checkRange, type Interval } from './range.js';
+export * from './p525.js';
+export * from './p676.js';
+export * from './p838.js';
+export * from './p618.js';
+export * from './p839.js';
+export * from './p837.js';
+export * from './p840.js';
+export * from './p453.js';
+export * from './p372.js';
+export * from './p531.js';
+// P.834 under prefixed names: src/geometry already exports refractionDeg/apparentElevationDeg (positional).
+export { P834_VALIDITY, apparentElevationDeg as p834ApparentElevationDeg, refractionDeg as p834RefractionDeg } from './p834.js';
+export * from './noise.js';
+export * from './antenna.js';
+export * from './polarisation.js';
+export * from './erfc.js';
+export * from './ber.js';
+export * from './modcod.js';

@@ -4,7 +4,8 @@
  * combination of the impairments into a total attenuation (§2.5).
  */
 import { rainSpecificCoefficients } from './p838.js';
-import { checkAtLeast, checkRange, DEG, type Interval } from './range.js';
+import { checkAtLeast, checkRange, type Interval } from './range.js';
+import { DEG } from './constants.js';
 
 export const P618_RAIN_VALIDITY = {
   frequencyGHz: [1, 55] as Interval,
@@ -128,8 +129,8 @@ export function scintillationFade(a: ScintillationInput): number {
 }
 
 /**
- * Total attenuation A_T(p) = A_G + sqrt((A_R + A_C)² + A_S²) — ITU-R P.618-13 §2.5 eq. (64);
- * for p < 1 % the gas and cloud terms are taken at 1 % (eqs. (65)–(66)).
+ * Total attenuation A_T(p) = A_G + sqrt((A_R + A_C)² + A_S²) — ITU-R P.618-13 §2.5;
+ * for p < 1 % the gas and cloud terms are taken at 1 %.
  */
 export function totalAttenuation(a: {
   exceedancePercent: number; gasDB: number; gasAt1PctDB: number; cloudDB: number; cloudAt1PctDB: number;

@@ -10,7 +10,8 @@
  * Pressures are dry-air pressures p (hPa); e = ρ T / 216.7 is the water-vapour
  * partial pressure, the total pressure is p + e.
  */
-import { checkAtLeast, checkRange, DEG, type Interval } from './range.js';
+import { checkAtLeast, checkRange, type Interval } from './range.js';
+import { DEG } from './constants.js';
 
 export const P676_SPECIFIC_VALIDITY = { frequencyGHz: [1, 1000] as Interval };
 /** Annex 2 (P.676-12): 1–1000 GHz (the -12 equivalent heights carry lines up to 834 GHz; from memory). Elevation: see slantPathFactor. */
@@ -103,13 +104,13 @@ const WATER = new Float64Array([
   1780.0, 17506.0, 0.952, 196.3, 2.0, 24.15, 5.0,
 ]);
 
-/** Line shape factor F_i, P.676-13 eq. (5). */
+/** Line shape factor F_i — P.676-13 Annex 1. */
 function lineShape(f: number, fi: number, df: number, delta: number): number {
   return (f / fi) * ((df - delta * (fi - f)) / ((fi - f) ** 2 + df * df)
     + (df - delta * (fi + f)) / ((fi + f) ** 2 + df * df));
 }
 
-/** N''_ox = Σ S_i F_i + N''_D (P.676-13 eqs. (3), (6)–(8)), p dry and e in hPa. */
+/** N''_ox = Σ S_i F_i + N''_D (P.676-13 Annex 1), p dry and e in hPa. */
 function oxygenImaginaryRefractivity(f: number, p: number, e: number, theta: number): number {
   let sum = 0;
   for (let j = 0; j < OXYGEN.length; j += 7) {
@@ -117,18 +118,18 @@ function oxygenImaginaryRefractivity(f: number, p: number, e: number, theta: num
     const a4 = OXYGEN[j + 4], a5 = OXYGEN[j + 5], a6 = OXYGEN[j + 6];
     const s = a1 * 1e-7 * p * theta ** 3 * Math.exp(a2 * (1 - theta));
     let df = a3 * 1e-4 * (p * theta ** (0.8 - a4) + 1.1 * e * theta);
-    df = Math.sqrt(df * df + 2.25e-6); // Zeeman splitting, eq. (6a)
+    df = Math.sqrt(df * df + 2.25e-6); // Zeeman splitting of the oxygen lines (P.676-13 Annex 1)
     const delta = (a5 + a6 * theta) * 1e-4 * (p + e) * theta ** 0.8;
     sum += s * lineShape(f, fi, df, delta);
   }
-  // Dry continuum, eq. (8)–(9).
+  // Dry continuum (P.676-13 Annex 1).
   const d = 5.6e-4 * (p + e) * theta ** 0.8;
   const nd = f * p * theta * theta * (6.14e-5 / (d * (1 + (f / d) ** 2))
     + (1.4e-12 * p * theta ** 1.5) / (1 + 1.9e-5 * f ** 1.5));
   return sum + nd;
 }
 
-/** N''_wv = Σ S_i F_i (P.676-13 eqs. (3), (6b)), δ = 0 for water lines. */
+/** N''_wv = Σ S_i F_i (P.676-13 Annex 1), δ = 0 for water lines. */
 function waterImaginaryRefractivity(f: number, p: number, e: number, theta: number): number {
   let sum = 0;
   for (let j = 0; j < WATER.length; j += 7) {
@@ -158,7 +159,7 @@ function checkAtmosphere(fn: string, a: GasAtmosphere): void {
   checkAtLeast(fn, 'waterVapourDensityGM3', a.waterVapourDensityGM3, 0, 'g/m³');
 }
 
-/** γ = γo + γw = 0.1820 f (N''_ox + N''_wv) dB/km — ITU-R P.676-13 Annex 1 eq. (1). */
+/** γ = γo + γw = 0.1820 f (N''_ox + N''_wv) dB/km — ITU-R P.676-13 Annex 1. */
 export function gasSpecificAttenuation(a: GasAtmosphere): GasSpecificAttenuation {
   const fn = 'gasSpecificAttenuation';
   checkRange(fn, 'frequencyGHz', a.frequencyGHz, P676_SPECIFIC_VALIDITY.frequencyGHz, 'GHz');
@@ -171,7 +172,7 @@ export function gasSpecificAttenuation(a: GasAtmosphere): GasSpecificAttenuation
   return { oxygenDBPerKm, waterDBPerKm, totalDBPerKm: oxygenDBPerKm + waterDBPerKm };
 }
 
-/** Water-vapour specific attenuation only (dB/km), P.676-13 Annex 1 eq. (1), without range checks. */
+/** Water-vapour specific attenuation only (dB/km), P.676-13 Annex 1, without range checks. */
 function waterSpecific(f: number, p: number, T: number, rho: number): number {
   const theta = 300 / T;
   return 0.182 * f * waterImaginaryRefractivity(f, p, (rho * T) / 216.7, theta);
@@ -182,7 +183,7 @@ const O2_T2_LINES = [
   [0.0938, 715.392902], [0.1448, 773.83949], [0.1374, 834.145546],
 ] as const;
 
-/** Oxygen equivalent height h_o (km) — ITU-R P.676-12 Annex 2 eqs. (31)–(34). */
+/** Oxygen equivalent height h_o (km) — ITU-R P.676-12 Annex 2 §2.1. */
 export function oxygenEquivalentHeightKm(a: GasAtmosphere): number {
   const f = a.frequencyGHz, T = a.temperatureK;
   const e = (a.waterVapourDensityGM3 * T) / 216.7;
@@ -204,7 +205,7 @@ const H2O_HW_LINES = [
   [970.315022, 1.36, 2.44], [987.926764, 1.6, 1.86],
 ] as const;
 
-/** Water-vapour equivalent height h_w (km) — ITU-R P.676-12 Annex 2 eqs. (36)–(37). */
+/** Water-vapour equivalent height h_w (km) — ITU-R P.676-12 Annex 2 §2.2. */
 export function waterEquivalentHeightKm(a: GasAtmosphere): number {
   const f = a.frequencyGHz, T = a.temperatureK, rho = a.waterVapourDensityGM3;
   const e = (rho * T) / 216.7;
@@ -219,7 +220,7 @@ export function waterEquivalentHeightKm(a: GasAtmosphere): number {
 
 /**
  * Zenith water-vapour attenuation (dB) from the integrated content V_t (kg/m²)
- * — ITU-R P.676-12 Annex 2 §2.3 eqs. (39)–(41): scaled from γw at 845 hPa and
+ * — ITU-R P.676-12 Annex 2 §2.3: scaled from γw at 845 hPa and
  * 20.6 GHz, with the station-height correction (a h^b + 1) for f ≥ 20 GHz, h in [0, 4] km.
  */
 export function zenithWaterVapourAttenuation(a: {
@@ -285,7 +286,7 @@ function curvedFactor(thetaRad: number, h: number): number {
 
 /**
  * Ratio of slant to zenith attenuation for a layer of equivalent height h (km).
- * θ ≥ 5°: 1 / sin θ (P.676-12 Annex 2 eq. (28)).
+ * θ ≥ 5°: 1 / sin θ (P.676-12 Annex 2).
  * θ < 5°: the curved-path equivalent-height form of earlier P.676 editions
  * (from memory): sqrt(R/h) F(tan θ sqrt(R/h)) / cos θ with F(x) = 1/(0.661 x +
  * 0.339 sqrt(x² + 5.51)) and R = 8500 km, scaled by a constant so that it

@@ -3,7 +3,8 @@
  * from the horizontal/vertical coefficients combined for path elevation and
  * polarisation tilt (eqs. (2)–(5)).
  */
-import { checkRange, DEG, type Interval } from './range.js';
+import { checkRange, type Interval } from './range.js';
+import { DEG } from './constants.js';
 
 export const P838_VALIDITY = { frequencyGHz: [1, 1000] as Interval, elevationDeg: [0, 90] as Interval };
 

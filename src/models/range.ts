@@ -23,4 +23,3 @@ export function checkAtLeast(fn: string, name: string, value: number, min: numbe
   }
 }
 
-export const DEG = Math.PI / 180;

@@ -1,0 +1,112 @@
+/**
+ * Antenna gain models. Per-step functions (pointing loss, patterns) allocate
+ * nothing and check only what is cheap.
+ */
+import { checkAtLeast, checkRange } from './range.js';
+import { C_M_S, DEG } from './constants.js';
+
+/** Gain floor of the parabolic main-lobe model below the peak (dB): a stated sidelobe level, assumption of this project. */
+export const PARABOLIC_SIDELOBE_BELOW_PEAK_DB = 30;
+
+function wavelengthM(frequencyGHz: number): number {
+  return C_M_S / (frequencyGHz * 1e9);
+}
+
+/** G = η (π D / λ)² (dBi) — aperture antenna gain (common practice; e.g. Balanis, Antenna Theory). */
+export function parabolicGainDBi(a: { diameterM: number; frequencyGHz: number; efficiency: number }): number {
+  const fn = 'parabolicGainDBi';
+  checkAtLeast(fn, 'diameterM', a.diameterM, 0, 'm', true);
+  checkAtLeast(fn, 'frequencyGHz', a.frequencyGHz, 0, 'GHz', true);
+  checkRange(fn, 'efficiency', a.efficiency, [1e-6, 1]);
+  return 10 * Math.log10(a.efficiency * ((Math.PI * a.diameterM) / wavelengthM(a.frequencyGHz)) ** 2);
+}
+
+/** θ3dB ≈ 70 λ / D (deg) — half-power beamwidth of a dish (common practice). */
+export function parabolicBeamwidthDeg(a: { diameterM: number; frequencyGHz: number }): number {
+  checkAtLeast('parabolicBeamwidthDeg', 'diameterM', a.diameterM, 0, 'm', true);
+  checkAtLeast('parabolicBeamwidthDeg', 'frequencyGHz', a.frequencyGHz, 0, 'GHz', true);
+  return (70 * wavelengthM(a.frequencyGHz)) / a.diameterM;
+}
+
+/** L = 12 (θe / θ3dB)² dB — main-lobe Gaussian-beam pointing loss (common practice). */
+export function pointingLossDB(a: { errorDeg: number; beamwidthDeg: number }): number {
+  const r = a.errorDeg / a.beamwidthDeg;
+  return 12 * r * r;
+}
+
+/**
+ * Parabolic gain off boresight (dBi): peak − 12 (θ/θ3dB)², floored at
+ * peak − PARABOLIC_SIDELOBE_BELOW_PEAK_DB (or `floorGainDBi` when given).
+ * The Gaussian main lobe is fair to about the first null (≈ 1.2 θ3dB, −17 dB);
+ * beyond, the flat floor stands for the sidelobes (assumption, not a pattern standard).
+ */
+export function parabolicGainAtDBi(a: {
+  diameterM: number; frequencyGHz: number; efficiency: number; offBoresightDeg: number; floorGainDBi?: number;
+}): number {
+  const peak = parabolicGainDBi(a);
+  const g = peak - pointingLossDB({ errorDeg: a.offBoresightDeg, beamwidthDeg: parabolicBeamwidthDeg(a) });
+  const floor = a.floorGainDBi ?? peak - PARABOLIC_SIDELOBE_BELOW_PEAK_DB;
+  return g > floor ? g : floor;
+}
+
+/** n such that cosⁿ(θ3dB / 2) = 1/2, for 0 < θ3dB < 180° (broad-beam cosine-power model; common practice). */
+export function cosinePowerExponent(a: { beamwidthDeg: number }): number {
+  checkRange('cosinePowerExponent', 'beamwidthDeg', a.beamwidthDeg, [1e-6, 179.999], 'deg');
+  return Math.log(0.5) / Math.log(Math.cos((a.beamwidthDeg / 2) * DEG));
+}
+
+/** Default floor of the cosine-power pattern below the peak (dB), assumption of this project. */
+export const COSINE_POWER_FLOOR_BELOW_PEAK_DB = 30;
+
+/**
+ * G(θ) = G0 + 10 log10(cosⁿ θ) (dBi), not below the floor (default G0 − 30 dB);
+ * the floor also applies for θ ≥ 90° (broad-beam model; common practice).
+ */
+export function cosinePowerGainDBi(a: { peakGainDBi: number; exponent: number; offBoresightDeg: number; floorGainDBi?: number }): number {
+  const floor = a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB;
+  const th = Math.abs(a.offBoresightDeg);
+  if (th >= 90) return floor;
+  const g = a.peakGainDBi + 10 * a.exponent * Math.log10(Math.cos(th * DEG));
+  return g > floor ? g : floor;
+}
+
+export interface GainTable { offBoresightDeg: number[]; gainDBi: number[] }
+
+/**
+ * Checks a tabulated pattern once (at scenario load): same lengths, at least
+ * one point, finite values, angles strictly increasing. Throws RangeError naming the fault.
+ */
+export function validateGainTable(t: GainTable): void {
+  const fn = 'validateGainTable';
+  if (t.offBoresightDeg.length !== t.gainDBi.length) {
+    throw new RangeError(`${fn}: offBoresightDeg has ${t.offBoresightDeg.length} points and gainDBi ${t.gainDBi.length} (must be equal)`);
+  }
+  if (t.offBoresightDeg.length === 0) throw new RangeError(`${fn}: the table is empty (at least 1 point)`);
+  for (let i = 0; i < t.offBoresightDeg.length; i++) {
+    if (!Number.isFinite(t.offBoresightDeg[i]) || !Number.isFinite(t.gainDBi[i])) {
+      throw new RangeError(`${fn}: point ${i} is not finite (finite numbers)`);
+    }
+    if (i > 0 && !(t.offBoresightDeg[i] > t.offBoresightDeg[i - 1])) {
+      throw new RangeError(`${fn}: offBoresightDeg[${i}] = ${t.offBoresightDeg[i]} is not above offBoresightDeg[${i - 1}] = ${t.offBoresightDeg[i - 1]} (strictly increasing)`);
+    }
+  }
+}
+
+/**
+ * Gain (dBi) at `angleDeg` from a tabulated pattern, linear in dB between points,
+ * held constant beyond the ends. Binary search; no allocation. Call
+ * validateGainTable once beforehand (this per-step function only checks lengths).
+ */
+export function tabulatedGainDBi(t: GainTable, angleDeg: number): number {
+  const x = t.offBoresightDeg, y = t.gainDBi, n = x.length;
+  if (n === 0 || n !== y.length) validateGainTable(t);
+  if (angleDeg <= x[0]) return y[0];
+  if (angleDeg >= x[n - 1]) return y[n - 1];
+  let lo = 0, hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (x[mid] <= angleDeg) lo = mid; else hi = mid;
+  }
+  const w = (angleDeg - x[lo]) / (x[hi] - x[lo]);
+  return y[lo] + w * (y[hi] - y[lo]);
+}

@@ -1,0 +1,15 @@
+/** Free-space basic transmission loss — ITU-R P.525. */
+
+import { C_M_S } from './constants.js';
+
+// 20 log10(4π · 1e3 m · 1e9 Hz / c): the constant for d in km and f in GHz.
+const FSL_CONSTANT_DB = 20 * Math.log10((4 * Math.PI * 1e12) / C_M_S);
+
+/**
+ * L_fs = 20 log10(4π d f / c) dB — ITU-R P.525 §2 (written there as
+ * 92.45 + 20 log f(GHz) + 20 log d(km)). No allocation; arguments must be > 0
+ * (not checked here: this is called per step; a non-positive distance gives −Infinity/NaN).
+ */
+export function freeSpaceLossDB(a: { distanceKm: number; frequencyGHz: number }): number {
+  return FSL_CONSTANT_DB + 20 * Math.log10(a.distanceKm * a.frequencyGHz);
+}
