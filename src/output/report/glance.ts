@@ -1,0 +1,63 @@
+/** The "at a glance" block: per link and weather case, what the network delivers per day and how close to the edge it runs. */
+import { max, min } from 'd3-array';
+import type { DailyRow, PassLinkSummary, RunSummary } from '../../analysis/types.js';
+import { escapeHtml as h } from './escape.js';
+import { formatBits, formatFixed } from './format.js';
+
+export const NETWORK = '(network)';
+
+export interface GlanceRow {
+  link: string;
+  weather: string;
+  networkVolumePerDayBits: number;
+  usablePassesPerDay: number;
+  usableMinutesPerDay: number;
+  worstMarginDB: number | null;
+  bestMarginDB: number | null;
+  verdicts: { usable: number; marginal: number; unusable: number };
+}
+
+/** One row per (link, weather): network totals from the run summary (daily rows as fallback), margins from the passes. */
+export function glanceRows(s: RunSummary, passes: PassLinkSummary[], daily: DailyRow[]): GlanceRow[] {
+  const days = s.window.days > 0 ? s.window.days : 1;
+  const rows: GlanceRow[] = [];
+  for (const link of s.links) {
+    for (const weather of s.weatherCases) {
+      const t = s.totals.find((x) => x.link === link && x.weather === weather && x.station === NETWORK);
+      const d = daily.filter((x) => x.link === link && x.weather === weather && x.station === NETWORK);
+      const cases = passes.filter((p) => p.link === link).flatMap((p) => p.cases.filter((c) => c.weather === weather));
+      const sum = (f: (r: DailyRow) => number) => d.reduce((a, r) => a + f(r), 0);
+      rows.push({
+        link, weather,
+        networkVolumePerDayBits: t ? t.dailyVolumeBits.mean : sum((r) => r.adaptiveVolumeBits ?? r.fixedVolumeBits) / days,
+        usablePassesPerDay: (t ? t.usablePasses : sum((r) => r.usablePasses)) / days,
+        usableMinutesPerDay: (t ? t.usableMinutes : sum((r) => r.usableMinutes)) / days,
+        worstMarginDB: min(cases, (c) => c.minMarginDB) ?? null,
+        bestMarginDB: max(cases, (c) => c.maxMarginDB) ?? null,
+        verdicts: {
+          usable: cases.filter((c) => c.verdict === 'usable').length,
+          marginal: cases.filter((c) => c.verdict === 'marginal').length,
+          unusable: cases.filter((c) => c.verdict === 'unusable').length,
+        },
+      });
+    }
+  }
+  return rows;
+}
+
+export function glance(rows: GlanceRow[], links: string[], required: Record<string, number>): string {
+  const cards = links.map((link) => {
+    const req = required[link];
+    const body = rows.filter((r) => r.link === link).map((r) => {
+      const worstCls = r.worstMarginDB !== null && req !== undefined && r.worstMarginDB < req ? 'bad' : '';
+      return `<tr><th>${h(r.weather)}</th><td class="num"><strong>${h(formatBits(r.networkVolumePerDayBits))}</strong></td>`
+        + `<td class="num">${formatFixed(r.usablePassesPerDay, 1)}</td><td class="num">${formatFixed(r.usableMinutesPerDay, 1)}</td>`
+        + `<td class="num ${worstCls}">${formatFixed(r.worstMarginDB, 1)}</td><td class="num">${formatFixed(r.bestMarginDB, 1)}</td>`
+        + `<td class="num">${r.verdicts.usable} / ${r.verdicts.marginal} / ${r.verdicts.unusable}</td></tr>`;
+    }).join('');
+    return `<div class="card"><h3>${h(link)}</h3>
+<table><thead><tr><th>weather</th><th class="num">network volume per day</th><th class="num">usable passes per day</th><th class="num">usable min per day</th><th class="num">worst margin (dB)</th><th class="num">best margin (dB)</th><th class="num">passes usable / marginal / unusable</th></tr></thead><tbody>${body}</tbody></table>
+<p class="small">required margin ${req === undefined ? 'not given' : `${formatFixed(req, 1)} dB`}; worst margin below it is shown in red.</p></div>`;
+  }).join('');
+  return `<section id="glance"><h2>At a glance</h2><div class="glance">${cards}</div></section>`;
+}

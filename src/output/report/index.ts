@@ -1,0 +1,57 @@
+/**
+ * The HTML report: one self-contained file (inline CSS, inline SVG charts
+ * built here with d3-scale/d3-shape, one small inline script), no network
+ * requests. Every text from the input is escaped.
+ */
+import { escapeHtml as h } from './escape.js';
+import { decimateSeries } from './decimate.js';
+import { glance, glanceRows } from './glance.js';
+import { header } from './header.js';
+import { linkSection } from './linkSection.js';
+import { pageShell } from './page.js';
+import { passTable } from './passTable.js';
+import type { PassSeries, ReportInput } from './types.js';
+import type { PassLinkSummary } from '../../analysis/types.js';
+
+export type { PassSeries, ReportInput } from './types.js';
+export { escapeHtml } from './escape.js';
+export { skyProjection } from './skyPlot.js';
+export { timeScales } from './timeChart.js';
+export { marginEnvelope, impliedMaskDeg } from './envelope.js';
+export { SERIES_COLOURS } from './palette.js';
+
+/** The whole HTML document for one run. */
+export function renderReport(input: ReportInput): string {
+  const s = input.summary;
+  const title = input.title ?? `passbudget report: ${s.scenario}`;
+  const seriesKey = (passId: string, link: string) => `${passId}\u0000${link}`;
+  const series = new Map<string, PassSeries>();
+  for (const x of input.series) series.set(seriesKey(x.passId, x.link), decimateSeries(x));
+  const passes = [...input.passes].sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station) || a.link.localeCompare(b.link));
+  const index = new Map<PassLinkSummary, number>(passes.map((p, i) => [p, i]));
+  const links = [...s.links, ...new Set(passes.map((p) => p.link).filter((l) => !s.links.includes(l)))];
+  const weatherCases = s.weatherCases.length > 0 ? s.weatherCases : [...new Set(passes.flatMap((p) => p.cases.map((c) => c.weather)))];
+
+  const nav = `<nav class="small">Jump to: <a href="#glance">at a glance</a> · ${links.map((l, i) => `<a href="#link-${i}">${h(l)}</a>`).join(' · ')} · <a href="#pass-table">all passes</a></nav>`;
+  const body = [
+    header(s, title, input.generatedNote),
+    nav,
+    glance(glanceRows(s, passes, input.daily), links, input.requiredMarginDB),
+    ...links.map((link, i) => linkSection({
+      link,
+      stations: s.stations,
+      weatherCases,
+      daily: input.daily.filter((r) => r.link === link),
+      passes: passes.filter((p) => p.link === link).map((p) => ({ pass: p, index: index.get(p) as number, series: series.get(seriesKey(p.passId, p.link)) })),
+      requiredDB: input.requiredMarginDB[link] ?? null,
+      horizonMasks: input.horizonMasks,
+      maskTrade: (input.maskTrade ?? []).filter((t) => t.link === link),
+      maskFindings: (input.maskFindings ?? []).filter((t) => t.link === link),
+      rateTrade: (input.rateTrade ?? []).filter((t) => t.link === link),
+      anchor: `link-${i}`,
+    })),
+    passTable(passes, (p) => index.get(p) as number),
+    `<footer class="small"><p>Made by passbudget from run inputs ${h(s.inputsSha256.slice(0, 12))}…; files of this run: ${s.files.map(h).join(', ') || '–'}.</p></footer>`,
+  ].join('\n');
+  return pageShell(title, body);
+}

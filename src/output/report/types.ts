@@ -1,0 +1,36 @@
+/**
+ * Input of the HTML report: the analysis summaries plus decimated per-pass
+ * time series. Everything is in memory; `passbudget report DIR` loads an
+ * output folder back into this shape.
+ */
+import type {
+  DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradePoint, RunSummary,
+} from '../../analysis/types.js';
+
+/** Decimated time series of one pass and link (≤ ~300 points; longer series are thinned by the renderer). */
+export interface PassSeries {
+  passId: string;
+  link: string;
+  /** Unix seconds UTC. */
+  timeS: number[];
+  azimuthDeg: number[];
+  elevationDeg: number[];
+  cases: { weather: string; marginDB: number[]; ebN0DB: number[] }[];
+}
+
+export interface ReportInput {
+  summary: RunSummary;
+  passes: PassLinkSummary[];
+  daily: DailyRow[];
+  series: PassSeries[];
+  /** Required margin per link (dB). */
+  requiredMarginDB: Record<string, number>;
+  /** Per station: (azimuth, elevation) polyline in degrees, azimuth 0–360. */
+  horizonMasks: Record<string, [number, number][]>;
+  maskTrade?: MaskTradePoint[];
+  maskFindings?: MaskFinding[];
+  rateTrade?: RateTradePoint[];
+  generatedNote?: string;
+  /** Report title (default: the scenario name). */
+  title?: string;
+}
