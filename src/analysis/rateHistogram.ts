@@ -6,7 +6,8 @@
  * A bin counts as closing only when its lower edge meets that threshold, so
  * the histogram never counts a step that would not close; it may miss steps in
  * the one bin that straddles the threshold (at most `binDB` of conservatism).
- * C/N0 below minDBHz never closes; above maxDBHz counts as the top bin's lower edge.
+ * C/N0 below minDBHz never closes; at or above maxDBHz it goes to a last, open
+ * bin whose lower edge is the first bin edge at or above maxDBHz.
  */
 import { InputError } from '../errors.js';
 import type { RateTradePoint } from './types.js';
@@ -23,6 +24,7 @@ export interface RateHistogramOptions {
 export interface RateHistogram {
   readonly binDB: number;
   readonly minDBHz: number;
+  /** Number of bins, the last being the open bin [maxDBHz, ∞). */
   readonly bins: number;
   readonly station: string;
   readonly link: string;
@@ -44,7 +46,7 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
   if (!(Number.isFinite(minDBHz) && Number.isFinite(maxDBHz) && maxDBHz > minDBHz)) {
     throw new InputError(`rate finder C/N0 range: [${minDBHz}, ${maxDBHz}] dBHz is empty (allowed finite min < max)`);
   }
-  const bins = Math.ceil((maxDBHz - minDBHz) / binDB - 1e-9);
+  const bins = Math.ceil((maxDBHz - minDBHz) / binDB - 1e-9) + 1;
   const edgeDBHz = (k: number) => Math.round((minDBHz + k * binDB) * 1e9) / 1e9;
   const timeS = new Float64Array(bins);
   let underflowS = 0;
