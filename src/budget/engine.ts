@@ -31,6 +31,7 @@ import {
   selectAdaptiveMode,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
+import { dopplerRateHzS, dopplerShiftHz } from '../geometry/doppler.js';
 import type { GeometrySample } from '../geometry/types.js';
 import { antennaPattern, type AntennaPattern } from './antenna.js';
 import {
@@ -41,9 +42,6 @@ import { azElSeparationDeg, spacecraftOffBoresightDeg, unitVector } from './atti
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMount, type MountState } from './mount.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
-
-/** Speed of light (km/s), exact (SI). */
-export const SPEED_OF_LIGHT_KM_S = 299_792.458;
 
 export interface LinkEngineOptions {
   link: LinkSpec;
@@ -172,6 +170,8 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const k = BOLTZMANN_DBW_PER_K_HZ;
   const fHz = f * 1e9;
   const fslArgs = { distanceKm: 0, frequencyGHz: f };
+  const dopArgs = { frequencyHz: fHz, rangeRateKmS: 0 };
+  const rateArgs = { frequencyHz: fHz, rangeAccelKmS2: 0 };
 
   const scPointing = link.spacecraft.pointing;
   const scBoresight: number[] = scPointing.kind === 'nadir' ? unitVector(scPointing.boresightBody)
@@ -280,9 +280,13 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     out.free_space_loss_db = fsl;
     out.polarisation_loss_db = polLoss;
     out.other_losses_db = link.otherLossesDB;
-    // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11).
-    out.doppler_hz = (-fHz * s.rangeRateKmS) / SPEED_OF_LIGHT_KM_S;
-    out.doppler_rate_hz_s = (-fHz * s.rangeAccelKmS2) / SPEED_OF_LIGHT_KM_S;
+    // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
+    // shift is the same to first order whichever end transmits (downlink: as received on the
+    // ground; uplink: as the spacecraft sees it).
+    dopArgs.rangeRateKmS = s.rangeRateKmS;
+    out.doppler_hz = dopplerShiftHz(dopArgs);
+    rateArgs.rangeAccelKmS2 = s.rangeAccelKmS2;
+    out.doppler_rate_hz_s = dopplerRateHzS(rateArgs);
 
     const atmEl = appEl > 90 ? 90 : appEl > 0 ? appEl : 0;
     interpolateTable(table, atmEl, terms);
