@@ -44,7 +44,8 @@ export function parabolicGainAtDBi(a: {
   diameterM: number; frequencyGHz: number; efficiency: number; offBoresightDeg: number; floorGainDBi?: number;
 }): number {
   const peak = parabolicGainDBi(a);
-  const g = peak - pointingLossDB({ errorDeg: a.offBoresightDeg, beamwidthDeg: parabolicBeamwidthDeg(a) });
+  const r = a.offBoresightDeg / parabolicBeamwidthDeg(a);
+  const g = peak - 12 * r * r; // pointingLossDB, inlined so the call does not allocate
   const floor = a.floorGainDBi ?? peak - PARABOLIC_SIDELOBE_BELOW_PEAK_DB;
   return g > floor ? g : floor;
 }
