@@ -112,7 +112,7 @@ describe('findPasses details', () => {
       }
       // The maximiser must be at least as good as any sample and not much better: near
       // the zenith elevation peaks sharply (about 1 deg/s either side of an 89.6 deg
-      // peak), so a 0.1-s sample can sit up to ~0.05 deg... in practice 0.002 deg below.
+      // peak), so the best 0.1-s sample falls short of it by a few thousandths of a degree.
       expect(p.maxElevationDeg).toBeGreaterThanOrEqual(maxEl - 1e-9);
       expect(p.maxElevationDeg - maxEl).toBeLessThan(p.maxElevationDeg > 80 ? 0.01 : 1e-4);
       expect(p.minRangeKm).toBeLessThanOrEqual(minR + 1e-9);
