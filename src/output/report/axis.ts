@@ -17,35 +17,42 @@ export interface AxisOptions {
   grid?: boolean;
 }
 
-/** Bottom axis of a continuous scale, at the bottom of `area`. */
+/** Bottom axis of a continuous scale, at the bottom of `area`. Tick marks and grid lines are one path each. */
 export function axisBottom(scale: Continuous, area: PlotArea, o: AxisOptions): string {
   const n = o.ticks ?? 6;
   const fmt = scale.tickFormat(n, o.specifier);
-  let s = tag('line', { x1: area.x0, x2: area.x1, y1: area.y1, y2: area.y1, stroke: INK });
-  for (const t of scale.ticks(n)) {
-    const x = scale(t);
-    if (o.grid) s += tag('line', { x1: x, x2: x, y1: area.y0, y2: area.y1, stroke: GRID });
-    s += tag('line', { x1: x, x2: x, y1: area.y1, y2: area.y1 + 5, stroke: INK });
-    s += text({ x, y: area.y1 + 17, 'text-anchor': 'middle', class: 'tick' }, fmt(t));
+  const ticks = scale.ticks(n);
+  let marks = `M${px(area.x0)} ${px(area.y1)}H${px(area.x1)}`;
+  let grid = '';
+  let labels = '';
+  for (const t of ticks) {
+    const x = px(scale(t));
+    grid += `M${x} ${px(area.y0)}V${px(area.y1)}`;
+    marks += `M${x} ${px(area.y1)}v5`;
+    labels += text({ x: scale(t), y: area.y1 + 17, 'text-anchor': 'middle', class: 'tick' }, fmt(t));
   }
-  s += text({ x: (area.x0 + area.x1) / 2, y: area.y1 + 34, 'text-anchor': 'middle', class: 'axis-label' }, o.label);
-  return tag('g', { class: 'axis axis-x' }, s);
+  const label = text({ x: (area.x0 + area.x1) / 2, y: area.y1 + 34, 'text-anchor': 'middle', class: 'axis-label' }, o.label);
+  return tag('g', { class: 'axis axis-x' },
+    o.grid ? tag('path', { d: grid, stroke: GRID, fill: 'none' }) : '', tag('path', { d: marks, stroke: INK, fill: 'none' }), labels, label);
 }
 
 /** Left axis of a continuous scale, at the left of `area`. */
 export function axisLeft(scale: Continuous, area: PlotArea, o: AxisOptions): string {
   const n = o.ticks ?? 5;
   const fmt = scale.tickFormat(n, o.specifier);
-  let s = tag('line', { x1: area.x0, x2: area.x0, y1: area.y0, y2: area.y1, stroke: INK });
+  let marks = `M${px(area.x0)} ${px(area.y0)}V${px(area.y1)}`;
+  let grid = '';
+  let labels = '';
   for (const t of scale.ticks(n)) {
-    const y = scale(t);
-    if (o.grid) s += tag('line', { x1: area.x0, x2: area.x1, y1: y, y2: y, stroke: GRID });
-    s += tag('line', { x1: area.x0 - 5, x2: area.x0, y1: y, y2: y, stroke: INK });
-    s += text({ x: area.x0 - 8, y: y + 4, 'text-anchor': 'end', class: 'tick' }, fmt(t));
+    const y = px(scale(t));
+    grid += `M${px(area.x0)} ${y}H${px(area.x1)}`;
+    marks += `M${px(area.x0 - 5)} ${y}h5`;
+    labels += text({ x: area.x0 - 8, y: scale(t) + 4, 'text-anchor': 'end', class: 'tick' }, fmt(t));
   }
   const cy = (area.y0 + area.y1) / 2;
-  s += text({ x: 14, y: cy, 'text-anchor': 'middle', class: 'axis-label', transform: `rotate(-90 14 ${px(cy)})` }, o.label);
-  return tag('g', { class: 'axis axis-y' }, s);
+  const label = text({ x: 14, y: cy, 'text-anchor': 'middle', class: 'axis-label', transform: `rotate(-90 14 ${px(cy)})` }, o.label);
+  return tag('g', { class: 'axis axis-y' },
+    o.grid ? tag('path', { d: grid, stroke: GRID, fill: 'none' }) : '', tag('path', { d: marks, stroke: INK, fill: 'none' }), labels, label);
 }
 
 /** Bottom axis of a band scale: one label per category. */

@@ -26,7 +26,7 @@ export function renderReport(input: ReportInput): string {
   const title = input.title ?? `passbudget report: ${s.scenario}`;
   const seriesKey = (passId: string, link: string) => `${passId}\u0000${link}`;
   const series = new Map<string, PassSeries>();
-  for (const x of input.series) series.set(seriesKey(x.passId, x.link), decimateSeries(x));
+  for (const x of input.series) series.set(seriesKey(x.passId, x.link), decimateSeries(x, input.maxChartPoints ?? 150));
   const passes = [...input.passes].sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station) || a.link.localeCompare(b.link));
   const index = new Map<PassLinkSummary, number>(passes.map((p, i) => [p, i]));
   const links = [...s.links, ...new Set(passes.map((p) => p.link).filter((l) => !s.links.includes(l)))];

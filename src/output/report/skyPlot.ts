@@ -91,14 +91,14 @@ export function skyPlot(title: string, track: SkyTrack, mask: [number, number][]
   return svgRoot(frame, title, body, 'chart sky');
 }
 
-/** Insert points every ≤ 2° of azimuth so straight chords become arcs on the polar plot; close the loop at 360°. */
+/** Insert points every ≤ 6° of azimuth (chord sag at the rim under 0.2 % of the radius) so straight chords become arcs on the polar plot; close the loop at 360°. */
 function densify(pts: [number, number][]): [number, number][] {
   const out: [number, number][] = [];
   const closed = pts[pts.length - 1][0] >= 360 ? pts : [...pts, [pts[0][0] + 360, pts[0][1]] as [number, number]];
   for (let i = 0; i < closed.length - 1; i++) {
     const [a0, e0] = closed[i];
     const [a1, e1] = closed[i + 1];
-    const steps = Math.max(1, Math.ceil((a1 - a0) / 2));
+    const steps = Math.max(1, Math.ceil((a1 - a0) / 6));
     for (let k = 0; k < steps; k++) out.push([a0 + ((a1 - a0) * k) / steps, e0 + ((e1 - e0) * k) / steps]);
   }
   out.push(closed[closed.length - 1]);

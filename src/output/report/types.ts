@@ -31,6 +31,8 @@ export interface ReportInput {
   maskFindings?: MaskFinding[];
   rateTrade?: RateTradePoint[];
   generatedNote?: string;
+  /** Samples drawn per pass chart line (default 150; a 520 px chart shows no more). */
+  maxChartPoints?: number;
   /** Report title (default: the scenario name). */
   title?: string;
 }
