@@ -291,6 +291,8 @@ function curvedFactor(thetaRad: number, h: number): number {
  * (from memory): sqrt(R/h) F(tan θ sqrt(R/h)) / cos θ with F(x) = 1/(0.661 x +
  * 0.339 sqrt(x² + 5.51)) and R = 8500 km, scaled by a constant so that it
  * equals 1/sin 5° at 5° (continuous; the unscaled form is ~7 % lower there).
+ * (PHYSICS.md §4 writes the form without the 1/cos θ; without it the form would
+ * not tend to 1/sin θ at high elevation, so we keep the 1/cos θ.)
  * At 0° it stays finite (≈ 1.257 sqrt(R/h) × scale). Negative elevations are refused.
  */
 export function slantPathFactor(elevationDeg: number, equivalentHeightKm: number): number {
