@@ -1,0 +1,195 @@
+/**
+ * The run's output tables: column lists and row builders for steps.csv,
+ * passes.csv/json and daily.csv, and the summary.json record. Units are in
+ * every column name; times are ISO-8601 UTC with milliseconds; volumes are
+ * given in bits and in MB (10^6 bytes).
+ */
+import { createRequire } from 'node:module';
+import { STEP_COLUMNS, CASE_COLUMNS } from '../budget/columns.js';
+import type { StepBudget, WeatherCase } from '../budget/types.js';
+import { bitsToMegabytes } from '../analysis/units.js';
+import { runTotals } from '../analysis/stats.js';
+import type { DailyRow, PassLinkSummary, RunSummary } from '../analysis/types.js';
+import type { StepEvent } from '../analysis/pipeline.js';
+import { fmt, type CsvCell } from '../output/csv.js';
+import { formatIsoUtc } from '../orbit/time.js';
+import type { ResolvedScenario } from '../scenario/types.js';
+
+export const CAUTIONS = [
+  'Results are planning estimates: statistical propagation models (annual exceedance, not a forecast), ageing element sets and approximate coding thresholds.',
+  'Transmitting requires the proper licences and frequency coordination.',
+  'RF exposure near transmit antennas follows local regulations.',
+];
+
+/** Decimals per numeric column (by unit suffix), so files stay readable and deterministic. */
+function decimalsFor(column: string): number {
+  if (column.endsWith('_bps')) return 0;
+  if (column === 'doppler_hz') return 1;
+  if (column.endsWith('_hz_s')) return 2;
+  if (column.endsWith('_k')) return 2;
+  return 3;
+}
+
+const STEP_FIELDS = STEP_COLUMNS.filter((c) => c !== 'time_s');
+const CASE_FIELDS = CASE_COLUMNS.filter((c) => c !== 'weather');
+
+/** steps.csv: one row per (time, station, link); per-case fields suffixed with the case name. */
+export function stepColumns(cases: readonly WeatherCase[]): string[] {
+  const cols = ['pass_id', 'time_utc', 'satellite', 'station', 'link', ...STEP_FIELDS];
+  for (const c of cases) for (const f of CASE_FIELDS) cols.push(`${f}_${c.name}`);
+  return cols;
+}
+
+export function stepRow(e: StepEvent, row: CsvCell[] = []): CsvCell[] {
+  const s: StepBudget = e.step;
+  let i = 0;
+  row[i++] = e.passId;
+  row[i++] = formatIsoUtc(e.timeS);
+  row[i++] = e.satellite;
+  row[i++] = e.station;
+  row[i++] = e.link.name;
+  for (const f of STEP_FIELDS) {
+    const v = s[f];
+    row[i++] = typeof v === 'number' ? fmt(v, decimalsFor(f)) : v;
+  }
+  for (const c of s.cases) {
+    for (const f of CASE_FIELDS) {
+      const v = c[f];
+      row[i++] = typeof v === 'number' ? fmt(v, decimalsFor(f)) : v;
+    }
+  }
+  row.length = i;
+  return row;
+}
+
+export const PASS_COLUMNS = [
+  'pass_id', 'satellite', 'station', 'link', 'direction', 'weather',
+  'aos_utc', 'tca_utc', 'los_utc', 'max_elevation_deg', 'duration_s', 'clipped_start', 'clipped_end', 'steps',
+  'usable_start_utc', 'usable_end_utc', 'usable_duration_s',
+  'min_margin_db', 'mean_margin_db', 'max_margin_db',
+  'fixed_volume_bits', 'fixed_volume_mb', 'adaptive_volume_bits', 'adaptive_volume_mb',
+  'verdict', 'verdict_rule',
+];
+
+const iso = (t: number | null) => (t === null ? '' : formatIsoUtc(t));
+
+export function passRows(passes: readonly PassLinkSummary[]): CsvCell[][] {
+  const rows: CsvCell[][] = [];
+  for (const p of passes) {
+    for (const c of p.cases) {
+      rows.push([
+        p.passId, p.satellite, p.station, p.link, p.direction, c.weather,
+        iso(p.aosS), iso(p.tcaS), iso(p.losS), fmt(p.maxElevationDeg, 3), fmt(p.durationS, 3), p.clippedStart, p.clippedEnd, p.steps,
+        iso(c.usableStartS), iso(c.usableEndS), fmt(c.usableDurationS, 3),
+        fmt(c.minMarginDB, 3), fmt(c.meanMarginDB, 3), fmt(c.maxMarginDB, 3),
+        fmt(c.fixedVolumeBits, 0), fmt(bitsToMegabytes(c.fixedVolumeBits), 6),
+        c.adaptiveVolumeBits === null ? '' : fmt(c.adaptiveVolumeBits, 0),
+        c.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(c.adaptiveVolumeBits), 6),
+        c.verdict, c.verdictRule,
+      ]);
+    }
+  }
+  return rows;
+}
+
+const round = (x: number, d: number) => (Number.isFinite(x) ? Number(x.toFixed(d)) : null);
+
+/** passes.json: the pass summaries with ISO times and both volume units. */
+export function passJson(passes: readonly PassLinkSummary[]): unknown[] {
+  return passes.map((p) => ({
+    pass_id: p.passId, satellite: p.satellite, station: p.station, link: p.link, direction: p.direction,
+    aos_utc: iso(p.aosS), tca_utc: iso(p.tcaS), los_utc: iso(p.losS),
+    max_elevation_deg: round(p.maxElevationDeg, 3), duration_s: round(p.durationS, 3),
+    clipped_start: p.clippedStart, clipped_end: p.clippedEnd, steps: p.steps,
+    weather: p.cases.map((c) => ({
+      weather: c.weather,
+      usable_start_utc: c.usableStartS === null ? null : iso(c.usableStartS),
+      usable_end_utc: c.usableEndS === null ? null : iso(c.usableEndS),
+      usable_duration_s: round(c.usableDurationS, 3),
+      min_margin_db: round(c.minMarginDB, 3), mean_margin_db: round(c.meanMarginDB, 3), max_margin_db: round(c.maxMarginDB, 3),
+      fixed_volume_bits: round(c.fixedVolumeBits, 0), fixed_volume_mb: round(bitsToMegabytes(c.fixedVolumeBits), 6),
+      adaptive_volume_bits: c.adaptiveVolumeBits === null ? null : round(c.adaptiveVolumeBits, 0),
+      adaptive_volume_mb: c.adaptiveVolumeBits === null ? null : round(bitsToMegabytes(c.adaptiveVolumeBits), 6),
+      verdict: c.verdict, verdict_rule: c.verdictRule,
+    })),
+  }));
+}
+
+export const DAILY_COLUMNS = [
+  'day_utc', 'satellite', 'station', 'link', 'weather', 'passes', 'usable_passes', 'usable_min',
+  'fixed_volume_mb', 'adaptive_volume_mb', 'longest_gap_h',
+];
+
+export function dailyRows(daily: readonly DailyRow[]): CsvCell[][] {
+  return daily.map((d) => [
+    d.dayUtc, d.satellite, d.station, d.link, d.weather, d.passes, d.usablePasses, fmt(d.usableMinutes, 3),
+    fmt(bitsToMegabytes(d.fixedVolumeBits), 6),
+    d.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(d.adaptiveVolumeBits), 6),
+    fmt(d.longestGapH, 3),
+  ]);
+}
+
+/** The published models the engine composes, for the provenance record. */
+export const MODELS_USED = [
+  { name: 'SGP4/SDP4', source: 'satellite.js; Vallado et al., Revisiting Spacetrack Report #3, AIAA 2006-6753' },
+  { name: 'Free-space loss', source: 'ITU-R P.525' },
+  { name: 'Gaseous attenuation', source: 'ITU-R P.676-13 Annex 1 (specific), P.676-12 Annex 2 (slant path, equivalent heights)' },
+  { name: 'Rain specific attenuation', source: 'ITU-R P.838-3' },
+  { name: 'Rain attenuation', source: 'ITU-R P.618-13 §2.2.1.1' },
+  { name: 'Rain height', source: 'ITU-R P.839 (h_R = h_0 + 0.36 km)' },
+  { name: 'Cloud attenuation', source: 'ITU-R P.840' },
+  { name: 'Scintillation', source: 'ITU-R P.618-13 §2.4.1, wet refractivity ITU-R P.453' },
+  { name: 'Total attenuation', source: 'ITU-R P.618-13 §2.5' },
+  { name: 'Sky noise', source: 'ITU-R P.618 §3 (brightness temperature from attenuation)' },
+  { name: 'External noise', source: 'ITU-R P.372 galactic and man-made (from memory)' },
+  { name: 'Refraction', source: 'ITU-R P.834 (from memory)' },
+  { name: 'Antennas', source: 'aperture gain G = η(πD/λ)², θ3dB ≈ 70λ/D, 12(θ/θ3dB)² pointing loss (common practice)' },
+  { name: 'Polarisation mismatch', source: 'elliptical polarisation loss factor (textbook form)' },
+  { name: 'Modulation and coding', source: 'uncoded BER closed forms; coding profiles and DVB-S2 EN 302 307-1 Table 13 (from memory)' },
+];
+
+function packageVersion(name: string): string {
+  try {
+    const require = createRequire(import.meta.url);
+    return (require(`${name}/package.json`) as { version: string }).version;
+  } catch {
+    return 'unknown';
+  }
+}
+
+export function softwareVersions(): { name: string; version: string }[] {
+  const require = createRequire(import.meta.url);
+  let own = 'unknown';
+  try { own = (require('../../package.json') as { version: string }).version; } catch { /* not packaged */ }
+  return [
+    { name: 'passbudget', version: own },
+    { name: 'satellite.js', version: packageVersion('satellite.js') },
+    { name: 'node', version: process.versions.node },
+  ];
+}
+
+export function runSummary(
+  scenario: ResolvedScenario, daily: readonly DailyRow[], files: string[], extraWarnings: string[] = [],
+): RunSummary {
+  const { startS, endS, stepS } = scenario.window;
+  return {
+    scenario: scenario.name,
+    scenarioFile: scenario.file,
+    window: { startUtc: formatIsoUtc(startS), endUtc: formatIsoUtc(endS), stepS, days: (endS - startS) / 86_400 },
+    satellites: scenario.satellites.map((s) => s.name),
+    stations: scenario.stations.map((s) => s.station.name),
+    links: [...new Set(scenario.links.map((l) => l.name))],
+    weatherCases: scenario.weatherCases.map((w) => w.name),
+    networkPolicy: scenario.network.kind === 'priority'
+      ? `priority order: ${scenario.network.order.join(' > ')}`
+      : 'best margin at each step',
+    totals: runTotals(daily),
+    models: MODELS_USED,
+    software: softwareVersions(),
+    defaultsApplied: scenario.defaultsApplied,
+    warnings: [...scenario.warnings, ...extraWarnings],
+    inputsSha256: scenario.inputsSha256,
+    files,
+    cautions: CAUTIONS,
+  };
+}

@@ -1,0 +1,164 @@
+/**
+ * `runScenario`: the main job. Runs the pipeline over a resolved scenario and
+ * writes steps.csv (streamed), passes.csv/json, daily.csv, summary.json,
+ * passes.ics and report.html into the output folder, atomically: everything
+ * goes to a staging folder first and is renamed into place only when the whole
+ * run has succeeded.
+ */
+import { resolve, join } from 'node:path';
+import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
+import { findMask, maskTrade } from '../analysis/maskHistogram.js';
+import { runPipeline, type PipelineResult } from '../analysis/pipeline.js';
+import { bitsToMegabytes } from '../analysis/units.js';
+import type { MaskFinding, MaskTradePoint, RunSummary } from '../analysis/types.js';
+import { epochWarning } from '../elements/index.js';
+import { AtomicOutputDir } from '../output/atomic.js';
+import { CsvStreamWriter, csvText, type CsvCell } from '../output/csv.js';
+import { renderCalendar } from '../output/ics.js';
+import { renderReport } from '../output/report/index.js';
+import type { ReportInput } from '../output/report/types.js';
+import type { ResolvedScenario } from '../scenario/types.js';
+import {
+  DAILY_COLUMNS, PASS_COLUMNS, dailyRows, passJson, passRows, runSummary, stepColumns, stepRow,
+} from './outputs.js';
+import { createProgress } from './progress.js';
+
+export interface RunOptions {
+  /** Output folder; default the scenario's `output.dir`, else `out/<scenario name>` under the working directory. */
+  outDir?: string;
+  quiet?: boolean;
+  /** Write steps.csv (default: the scenario's output option). */
+  steps?: boolean;
+}
+
+export interface RunResult {
+  outDir: string;
+  files: string[];
+  summary: RunSummary;
+  pipeline: PipelineResult;
+  maskTrade: MaskTradePoint[];
+  maskFindings: MaskFinding[];
+}
+
+export function defaultOutDir(scenario: ResolvedScenario, outDir?: string): string {
+  return resolve(outDir ?? scenario.output.dir ?? join('out', scenario.name));
+}
+
+export function elementWarnings(scenario: ResolvedScenario): string[] {
+  const w: string[] = [];
+  for (const s of scenario.satellites) {
+    const msg = epochWarning(s.elements, scenario.window.startS);
+    if (msg) w.push(msg);
+  }
+  return w;
+}
+
+/** Mask trade curves and findings from the pipeline's histograms (per station, link and case). */
+export function maskResults(scenario: ResolvedScenario, p: PipelineResult): { trade: MaskTradePoint[]; findings: MaskFinding[] } {
+  const days = (scenario.window.endS - scenario.window.startS) / 86_400;
+  const trade: MaskTradePoint[] = [];
+  const findings: MaskFinding[] = [];
+  for (const h of p.histograms) {
+    trade.push(...maskTrade(h.mask, days));
+    findings.push(findMask(h.mask, 1));
+    if (scenario.maskFraction < 1) findings.push(findMask(h.mask, scenario.maskFraction));
+  }
+  return { trade, findings };
+}
+
+export function reportInput(
+  scenario: ResolvedScenario, summary: RunSummary, p: PipelineResult,
+  extra: Pick<ReportInput, 'maskTrade' | 'maskFindings' | 'rateTrade'> = {},
+): ReportInput {
+  const requiredMarginDB: Record<string, number> = {};
+  for (const l of scenario.links) requiredMarginDB[l.name] = l.requiredMarginDB;
+  const horizonMasks: Record<string, [number, number][]> = {};
+  for (const s of scenario.stations) {
+    const m = s.station.mask;
+    horizonMasks[s.station.name] = m.kind === 'constant'
+      ? [[0, m.elevationDeg], [360, m.elevationDeg]]
+      : [...m.points.map(([a, e]) => [a, e] as [number, number]), [m.points[0][0] + 360, m.points[0][1]]];
+  }
+  return { summary, passes: p.passLinks, daily: p.daily, series: p.series, requiredMarginDB, horizonMasks, ...extra };
+}
+
+export async function runScenario(scenario: ResolvedScenario, opts: RunOptions = {}): Promise<RunResult> {
+  const outDir = defaultOutDir(scenario, opts.outDir);
+  const writeSteps = opts.steps ?? scenario.output.steps;
+  const warnings = elementWarnings(scenario);
+  const out = new AtomicOutputDir(outDir);
+  const progress = createProgress({ quiet: opts.quiet === true, label: scenario.name });
+  try {
+    let steps: CsvStreamWriter | null = null;
+    const row: CsvCell[] = [];
+    if (writeSteps) steps = new CsvStreamWriter(out.stream('steps.csv'), stepColumns(scenario.weatherCases));
+    const pipeline = await runPipeline({
+      scenario,
+      collectSeries: true,
+      onStep: steps ? (e) => steps!.write(stepRow(e, row)) : undefined,
+      onProgress: progress.update,
+    });
+    if (steps) await steps.close();
+    progress.done();
+
+    const { trade, findings } = maskResults(scenario, pipeline);
+    out.writeFile('passes.csv', await csvText(PASS_COLUMNS, passRows(pipeline.passLinks)));
+    out.writeFile('passes.json', `${JSON.stringify(passJson(pipeline.passLinks), null, 2)}\n`);
+    out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily)));
+    // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
+    out.writeFile('passes.ics', renderCalendar(pipeline.passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
+    const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
+    const summary = runSummary(scenario, pipeline.daily, fileNames, warnings);
+    out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings })));
+    out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
+    const files = out.commit();
+    return { outDir, files, summary, pipeline, maskTrade: trade, maskFindings: findings };
+  } catch (err) {
+    progress.done();
+    out.discard();
+    throw err;
+  }
+}
+
+/** The terminal summary: per link and weather case, each station and the network. */
+export function formatRunSummary(r: RunResult): string {
+  const s = r.summary;
+  const lines: string[] = [];
+  lines.push(`passbudget: ${s.scenario}  ${s.window.startUtc} → ${s.window.endUtc}  (${s.window.days.toFixed(2)} d, step ${s.window.stepS} s)`);
+  lines.push(`network policy: ${s.networkPolicy}`);
+  const head = ['link', 'weather', 'station', 'passes', 'usable', 'usable min/day', 'MB/day mean', 'MB/day p10', 'MB/day p90'];
+  const rows: string[][] = [];
+  const ordered = [...s.totals].sort((a, b) =>
+    a.link.localeCompare(b.link) || s.weatherCases.indexOf(a.weather) - s.weatherCases.indexOf(b.weather)
+    || (a.station === NETWORK_STATION ? 1 : 0) - (b.station === NETWORK_STATION ? 1 : 0) || a.station.localeCompare(b.station));
+  for (const t of ordered) {
+    rows.push([
+      t.link, t.weather, t.station, String(t.passes), String(t.usablePasses),
+      (t.usableMinutes / s.window.days).toFixed(1),
+      bitsToMegabytes(t.dailyVolumeBits.mean).toFixed(2),
+      bitsToMegabytes(t.dailyVolumeBits.p10).toFixed(2),
+      bitsToMegabytes(t.dailyVolumeBits.p90).toFixed(2),
+    ]);
+  }
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const numeric = head.map((_, i) => i >= 3);
+  const fmtRow = (r: string[]) => r.map((c, i) => (numeric[i] ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ');
+  lines.push('');
+  lines.push(fmtRow(head));
+  lines.push(widths.map((w) => '-'.repeat(w)).join('  '));
+  let prev = '';
+  for (const r of rows) {
+    const key = `${r[0]}|${r[1]}`;
+    if (prev && key !== prev) lines.push('');
+    prev = key;
+    lines.push(fmtRow(r));
+  }
+  lines.push('');
+  lines.push('MB = 10^6 bytes. "usable" counts passes judged usable (see passes.csv verdict_rule).');
+  for (const w of s.warnings) lines.push(`warning: ${w}`);
+  if (s.defaultsApplied.length) lines.push(`${s.defaultsApplied.length} defaults applied (listed in summary.json and the report).`);
+  lines.push('Planning estimates only; transmitting needs licences and frequency coordination; RF exposure per local regulations.');
+  lines.push(`files in ${r.outDir}:`);
+  for (const f of r.files) lines.push(`  ${f}`);
+  return lines.join('\n');
+}
