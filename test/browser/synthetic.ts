@@ -258,3 +258,13 @@ export function syntheticScenario(stations = ['Kaldfjell', 'Pico Verde', 'Maraka
     generatedNote: 'synthetic data for the report tests',
   };
 }
+
+/** Charts the renderer should draw: 3 per pass (margin, Eb/N0, sky) and per link: bars and trades per case, one envelope. */
+export function expectedChartCount(input: ReportInput): number {
+  let n = input.passes.length * 3;
+  for (const link of input.summary.links) {
+    n += input.summary.weatherCases.length + 1;
+    for (const t of [input.maskTrade ?? [], input.rateTrade ?? []]) n += new Set(t.filter((p) => p.link === link).map((p) => p.weather)).size;
+  }
+  return n;
+}
