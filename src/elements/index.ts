@@ -4,3 +4,4 @@ export * from './catalog.js';
 export * from './tle.js';
 export * from './omm.js';
 export * from './load.js';
+export * from './select.js';

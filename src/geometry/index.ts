@@ -4,3 +4,4 @@ export * from './refraction.js';
 export * from './mask.js';
 export * from './doppler.js';
 export * from './station.js';
+export * from './spec.js';
