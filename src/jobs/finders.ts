@@ -1,0 +1,118 @@
+/**
+ * `maskScenario` and `rateScenario`: the elevation-mask and data-rate finders.
+ * Both run the pipeline without writing steps and read its histograms:
+ * mask — usable time and volume binned by elevation (0.1°), so any candidate
+ * mask's daily volume and the lowest mask that meets the margin follow
+ * exactly; rate — time binned by C/N0 (0.01 dB), so the closing time at any
+ * fixed bit rate follows without re-running the budget.
+ */
+import { runPipeline, type PipelineResult } from '../analysis/pipeline.js';
+import { bestRate, rateTrade } from '../analysis/rateHistogram.js';
+import { bitsToMegabytes } from '../analysis/units.js';
+import type { MaskFinding, MaskTradePoint, RateTradePoint } from '../analysis/types.js';
+import { InputError } from '../errors.js';
+import { AtomicOutputDir } from '../output/atomic.js';
+import { csvText, fmt } from '../output/csv.js';
+import type { ResolvedScenario } from '../scenario/types.js';
+import { defaultOutDir, maskResults } from './run.js';
+import { createProgress } from './progress.js';
+
+export interface FinderOptions { outDir?: string; quiet?: boolean }
+
+async function pipelineOnly(scenario: ResolvedScenario, quiet: boolean): Promise<PipelineResult> {
+  const progress = createProgress({ quiet, label: scenario.name });
+  try {
+    return await runPipeline({ scenario, onProgress: progress.update });
+  } finally {
+    progress.done();
+  }
+}
+
+export const MASK_COLUMNS = ['station', 'link', 'weather', 'mask_deg', 'daily_volume_mb', 'usable_min_per_day'];
+
+export interface MaskResult { outDir: string; files: string[]; trade: MaskTradePoint[]; findings: MaskFinding[] }
+
+export async function maskScenario(scenario: ResolvedScenario, opts: FinderOptions & { fraction?: number } = {}): Promise<MaskResult> {
+  const fraction = opts.fraction ?? scenario.maskFraction;
+  if (!(fraction > 0 && fraction <= 1)) throw new InputError(`--fraction: ${fraction} is out of range (allowed 0 < fraction ≤ 1)`);
+  const outDir = defaultOutDir(scenario, opts.outDir);
+  const p = await pipelineOnly({ ...scenario, maskFraction: fraction }, opts.quiet === true);
+  const { trade, findings } = maskResults({ ...scenario, maskFraction: fraction }, p);
+  const out = new AtomicOutputDir(outDir);
+  try {
+    out.writeFile('mask.csv', await csvText(MASK_COLUMNS, trade.map((t) => [
+      t.station, t.link, t.weather, t.maskDeg, fmt(bitsToMegabytes(t.dailyVolumeBits), 6), fmt(t.usableMinutesPerDay, 3),
+    ])));
+    out.writeFile('mask.json', `${JSON.stringify({ scenario: scenario.name, fraction, findings: findings.map((f) => ({
+      station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, mask_deg: f.maskDeg,
+    })) }, null, 2)}\n`);
+    return { outDir, files: out.commit(), trade, findings };
+  } catch (err) {
+    out.discard();
+    throw err;
+  }
+}
+
+export function formatMaskResult(r: MaskResult): string {
+  const lines = ['lowest elevation mask at which the steps above it meet the required margin', ''];
+  const head = ['station', 'link', 'weather', 'fraction', 'mask_deg'];
+  const rows = r.findings.map((f) => [f.station, f.link, f.weather, f.fraction.toFixed(2), f.maskDeg === null ? 'none ≤ 90' : f.maskDeg.toFixed(1)]);
+  lines.push(...table(head, rows, [false, false, false, true, true]));
+  lines.push('', '(mask never below the station horizon mask; per station, without network arbitration)');
+  lines.push(`files in ${r.outDir}:`, ...r.files.map((f) => `  ${f}`));
+  return lines.join('\n');
+}
+
+export const RATE_COLUMNS = ['station', 'link', 'weather', 'bit_rate_bps', 'daily_volume_mb', 'usable_min_per_day'];
+
+export interface RateResult { outDir: string; files: string[]; trade: RateTradePoint[]; best: RateTradePoint[] }
+
+export async function rateScenario(scenario: ResolvedScenario, opts: FinderOptions & { ratesBps?: number[] } = {}): Promise<RateResult> {
+  const rates = [...(opts.ratesBps ?? scenario.rateCandidatesBps)].sort((a, b) => a - b);
+  if (rates.length === 0) throw new InputError('rate finder: no bit rates to try (give rate_finder.bit_rates_bps in the scenario or --rates)');
+  if (!scenario.links.some((l) => l.modcod.kind === 'fixed')) {
+    throw new InputError(`${scenario.file}: the rate finder needs at least one fixed-rate link (all links are adaptive)`);
+  }
+  const outDir = defaultOutDir(scenario, opts.outDir);
+  const p = await pipelineOnly(scenario, opts.quiet === true);
+  const days = (scenario.window.endS - scenario.window.startS) / 86_400;
+  const trade: RateTradePoint[] = [];
+  const best: RateTradePoint[] = [];
+  for (const h of p.histograms) {
+    if (!h.rate || h.link.modcod.kind !== 'fixed') continue;
+    const pts = rateTrade(h.rate, {
+      requiredEbN0DB: h.link.modcod.requiredEbN0DB,
+      implementationLossDB: h.link.implementationLossDB,
+      requiredMarginDB: h.link.requiredMarginDB,
+    }, rates, days);
+    trade.push(...pts);
+    const b = bestRate(pts);
+    if (b) best.push(b);
+  }
+  const out = new AtomicOutputDir(outDir);
+  try {
+    out.writeFile('rate.csv', await csvText(RATE_COLUMNS, trade.map((t) => [
+      t.station, t.link, t.weather, t.bitRateBps, fmt(bitsToMegabytes(t.dailyVolumeBits), 6), fmt(t.usableMinutesPerDay, 3),
+    ])));
+    return { outDir, files: out.commit(), trade, best };
+  } catch (err) {
+    out.discard();
+    throw err;
+  }
+}
+
+export function formatRateResult(r: RateResult): string {
+  const lines = ['bit rate that maximises daily data volume (fixed-rate links; per station, without network arbitration)', ''];
+  const head = ['station', 'link', 'weather', 'best_bit_rate_bps', 'daily_volume_mb', 'usable_min_per_day'];
+  const rows = r.best.map((b) => [b.station, b.link, b.weather, String(b.bitRateBps), bitsToMegabytes(b.dailyVolumeBits).toFixed(3), b.usableMinutesPerDay.toFixed(1)]);
+  lines.push(...table(head, rows, [false, false, false, true, true, true]));
+  lines.push('', `files in ${r.outDir}:`, ...r.files.map((f) => `  ${f}`));
+  return lines.join('\n');
+}
+
+function table(head: string[], rows: string[][], numeric: boolean[]): string[] {
+  const w = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (r: string[]) => r.map((c, i) => (numeric[i] ? c.padStart(w[i]) : c.padEnd(w[i]))).join('  ');
+  return [line(head), w.map((x) => '-'.repeat(x)).join('  '), ...rows.map(line)];
+}
+
