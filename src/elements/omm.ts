@@ -22,8 +22,7 @@ export function lineColumnAt(text: string, pos: number): { line: number; column:
 function keyLocation(src: Located, key: string, objectIndex: number): string {
   const re = new RegExp(`"${key}"\\s*:`, 'g');
   let m: RegExpExecArray | null;
-  let k = 0;
-  // Find which occurrence belongs to the object: count object openings before each match.
+  // The first occurrence inside this entry's span of text (entries are top-level objects).
   const starts = objectStarts(src.text);
   const begin = starts[objectIndex] ?? 0;
   const end = starts[objectIndex + 1] ?? src.text.length;
@@ -32,7 +31,6 @@ function keyLocation(src: Located, key: string, objectIndex: number): string {
       const lc = lineColumnAt(src.text, m.index);
       return `${src.file}:${lc.line}:${lc.column}`;
     }
-    k++;
   }
   const lc = lineColumnAt(src.text, begin);
   return `${src.file}:${lc.line}:${lc.column}`;
