@@ -79,8 +79,14 @@ export interface LinkEngine {
   beginPass(): void;
   /** Evaluate one step (steps of a pass in time order). Returns `out` (or an internal reused record). */
   evaluate(sample: GeometrySample, out?: StepBudget): StepBudget;
-  /** Evaluate one step and describe every term (allocates; not for the hot path). */
-  explain(sample: GeometrySample): ExplainLine[];
+  /**
+   * Evaluate one step (as `evaluate`, advancing the mount) and describe every term
+   * (allocates; not for the hot path). The step record goes into `out` when given.
+   */
+  explain(sample: GeometrySample, out?: StepBudget): ExplainLine[];
+  /** Symbol rate (baud) and, for fixed links, bit rate (b/s; NaN when adaptive). */
+  symbolRateBaud: number;
+  bitRateBps: number;
   /** Direct (untabulated) evaluation of the elevation terms, for checks. */
   atmosphereDirect(elevationDeg: number, out?: Float64Array): Float64Array;
   /** Detail of the last evaluated step. */
@@ -351,9 +357,11 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     polarisationLossDB: polLoss, notes, table, detail,
     beginPass() { resetMount(mount); },
     evaluate,
-    explain(sample) {
-      const step = evaluate(sample, createStepBudget(weatherCases));
-      return explainStep({ engine, sample, step, detail: { ...detail }, symbolRateBaud: symbolRate, bitRateBps: bitRate });
+    symbolRateBaud: symbolRate,
+    bitRateBps: bitRate,
+    explain(sample, out) {
+      const step = evaluate(sample, out ?? createStepBudget(weatherCases));
+      return explainStep({ engine, sample, step, detail: { ...detail } });
     },
     atmosphereDirect(el, out = new Float64Array(nTerms)) { return atmosphereAt(ctx, el, out); },
   };

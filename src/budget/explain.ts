@@ -5,6 +5,7 @@
  * Sign convention: powers and gains are added ("+"), losses are positive dB and
  * subtracted ("−"); a blank sign is information only.
  */
+import { BOLTZMANN_DBW_PER_K_HZ } from '../models/index.js';
 import { formatIsoUtc } from '../orbit/time.js';
 import type { GeometrySample } from '../geometry/types.js';
 import { copyStepBudget } from './columns.js';
@@ -33,8 +34,6 @@ export interface ExplainInput {
   sample: GeometrySample;
   step: StepBudget;
   detail: StepDetail;
-  symbolRateBaud: number;
-  bitRateBps: number;
 }
 
 const pointingSource: Record<string, string> = {
@@ -102,13 +101,13 @@ export function explainStep(input: ExplainInput): ExplainLine[] {
   add('Receive', 'system temperature', pc((c) => c.system_temperature_k), 'K', '', 1, 'Friis at the LNA input: T_A·a + T0(1 − a) + T_rx');
   add('Receive', 'G/T', pc((c) => c.g_over_t_dbk), 'dB/K', '+', 2, 'G_rx − L_feed − 10 log10 T_sys');
   add('Receive', `${rxName} pointing loss`, step.rx_pointing_loss_db, 'dB', '−', 3, 'G(θ) − G(θ + error + lag)');
-  add('Receive', 'Boltzmann constant k', -228.6, 'dBW/K/Hz', '−', 2, 'k = 1.380649e-23 J/K');
+  add('Receive', 'Boltzmann constant k', BOLTZMANN_DBW_PER_K_HZ, 'dBW/K/Hz', '−', 2, '10 log10(1.380649e-23 J/K), 2019 SI');
 
   add('Result', 'C/N0', pc((c) => c.c_over_n0_dbhz), 'dBHz', '', 2, 'sum of the signed terms above');
   if (link.modcod.kind === 'fixed') {
-    add('Result', 'bit rate', input.bitRateBps, 'b/s', '', 0, `${link.modcod.modulation}, ${link.modcod.coding}`);
+    add('Result', 'bit rate', engine.bitRateBps, 'b/s', '', 0, `${link.modcod.modulation}, ${link.modcod.coding}`);
   }
-  add('Result', 'symbol rate', input.symbolRateBaud, 'baud', '', 0, link.modcod.kind === 'fixed' ? 'bit rate / bits per symbol' : 'adaptive link');
+  add('Result', 'symbol rate', engine.symbolRateBaud, 'baud', '', 0, link.modcod.kind === 'fixed' ? 'bit rate / bits per symbol' : 'adaptive link');
   add('Result', 'Es/N0', pc((c) => c.es_over_n0_db), 'dB', '', 2, 'C/N0 − 10 log10 R_s');
   add('Result', 'Eb/N0', pc((c) => c.eb_over_n0_db), 'dB', '', 2,
     link.modcod.kind === 'fixed' ? 'C/N0 − 10 log10 R_b' : 'Es/N0 − 10 log10 η of the mode');
@@ -139,8 +138,9 @@ export interface ExplainHeader { title: string; weatherNames: string[]; notes?: 
 export function formatExplainTable(lines: ExplainLine[], header: ExplainHeader): string {
   const nCases = header.weatherNames.length;
   const termW = Math.max(24, ...lines.map((l) => l.term.length)) + 2;
-  const cellW = Math.max(12, ...header.weatherNames.map((n) => n.length + 2),
-    ...lines.flatMap((l) => l.values.map((v) => formatValue(v, l.digits).length + 2)));
+  // Column width from the per-case values and numbers; long single texts (the time) simply span the case columns.
+  const cellW = Math.max(10, ...header.weatherNames.map((n) => n.length + 2),
+    ...lines.flatMap((l) => (l.perCase || typeof l.values[0] === 'number' ? l.values.map((v) => formatValue(v, l.digits).length + 2) : [])));
   const unitW = Math.max(6, ...lines.map((l) => l.unit.length + 2));
   const out: string[] = [header.title,
     'Sign: "+" adds to C/N0, "−" subtracts (losses are positive dB); blank = information.', ''];
@@ -153,7 +153,7 @@ export function formatExplainTable(lines: ExplainLine[], header: ExplainHeader):
     }
     const cells = l.perCase
       ? l.values.map((v) => formatValue(v, l.digits).padStart(cellW)).join('')
-      : formatValue(l.values[0], l.digits).padStart(cellW) + ' '.repeat(cellW * Math.max(0, nCases - 1));
+      : formatValue(l.values[0], l.digits).padStart(cellW).padEnd(cellW * Math.max(1, nCases));
     out.push(`${l.sign || ' '} ${l.term.padEnd(termW)}${cells}  ${l.unit.padEnd(unitW)}${l.source}`);
   }
   if (header.notes?.length) {

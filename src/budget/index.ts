@@ -6,3 +6,4 @@ export * from './atmosphere.js';
 export * from './columns.js';
 export * from './engine.js';
 export * from './explain.js';
+export * from './instant.js';
