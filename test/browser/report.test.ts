@@ -115,6 +115,7 @@ describe.skipIf(!present)('HTML report in headless Chromium', () => {
     const first = page.locator('details.pass').nth(1);
     await first.evaluate((d) => { (d as HTMLDetailsElement).open = true; });
     await first.screenshot({ path: path.join(out, 'report-screenshot-pass.png') });
+    await page.locator('#link-2').screenshot({ path: path.join(out, 'report-screenshot-link.png') });
     expect(existsSync(path.join(out, 'report-screenshot.png'))).toBe(true);
   });
 });

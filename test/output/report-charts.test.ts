@@ -17,11 +17,12 @@ const labels = (svg: string) => [...svg.matchAll(/class="tick">([^<]*)</g)].map(
 
 describe('timeScales', () => {
   it('maps AOS to the left edge and LOS to the right edge of the plot area', () => {
-    const area = plotArea(TIME_FRAME); // x 54..460, y 22..206
+    const area = plotArea(TIME_FRAME); // 420×250 with margins 22/60/44/54 → x 54..360, y 22..206
+    expect(area).toEqual({ x0: 54, x1: 360, y0: 22, y1: 206 });
     const { x, y } = timeScales(1000, 1600, [-2, 8, 5], 3);
     expect(x(0)).toBe(area.x0);
     expect(x(10)).toBe(area.x1);
-    expect(x(5)).toBeCloseTo((54 + 460) / 2, 12);
+    expect(x(5)).toBeCloseTo(207, 12);
     // [-2, 8] is already nice: -2 dB at the bottom, 8 dB at the top, 3 dB halfway.
     expect(y(-2)).toBe(206);
     expect(y(8)).toBe(22);

@@ -7,10 +7,10 @@ import { scaleBand, scaleLinear } from 'd3-scale';
 import type { DailyRow } from '../../analysis/types.js';
 import { axisBottomBand, axisLeft } from './axis.js';
 import { caseVolumeBits } from './format.js';
-import { seriesStyle } from './palette.js';
+import { stationStyles } from './palette.js';
 import { plotArea, svgRoot, tag, type Frame } from './svg.js';
 
-export const BAR_FRAME: Frame = { width: 420, height: 230, margin: { top: 14, right: 12, bottom: 44, left: 62 } };
+export const BAR_FRAME: Frame = { width: 370, height: 230, margin: { top: 14, right: 12, bottom: 44, left: 62 } };
 
 export interface BarGroup { day: string; values: { key: string; bits: number }[] }
 
@@ -38,9 +38,10 @@ export function barScales(groups: BarGroup[], keys: string[], frame: Frame = BAR
 export function barChart(title: string, groups: BarGroup[], keys: string[], frame: Frame = BAR_FRAME): string {
   const { x, inner, y, area } = barScales(groups, keys, frame);
   let body = axisLeft(y, area, { label: 'volume per day (bit)', specifier: '~s', grid: true });
+  const styles = stationStyles(keys);
   for (const g of groups) {
-    g.values.forEach((v, i) => {
-      const st = seriesStyle(i, v.key);
+    g.values.forEach((v) => {
+      const st = styles.get(v.key) ?? stationStyles([v.key]).get(v.key)!;
       const x0 = (x(g.day) ?? 0) + (inner(v.key) ?? 0);
       body += tag('rect', { x: x0, y: y(v.bits), width: inner.bandwidth(), height: Math.max(y(0) - y(v.bits), 0), fill: st.colour, class: 'bar' },
         `<title>${escapeTitle(`${g.day} ${v.key}: ${v.bits} bit`)}</title>`);

@@ -46,18 +46,22 @@ export function glanceRows(s: RunSummary, passes: PassLinkSummary[], daily: Dail
 }
 
 export function glance(rows: GlanceRow[], links: string[], required: Record<string, number>): string {
-  const cards = links.map((link) => {
+  const body = links.map((link) => {
     const req = required[link];
-    const body = rows.filter((r) => r.link === link).map((r) => {
-      const worstCls = r.worstMarginDB !== null && req !== undefined && r.worstMarginDB < req ? 'bad' : '';
-      return `<tr><th>${h(r.weather)}</th><td class="num"><strong>${h(formatBits(r.networkVolumePerDayBits))}</strong></td>`
+    const mine = rows.filter((r) => r.link === link);
+    return mine.map((r, k) => {
+      const worstCls = r.worstMarginDB !== null && req !== undefined && r.worstMarginDB < req ? ' bad' : '';
+      const linkCell = k === 0
+        ? `<th rowspan="${mine.length}" scope="rowgroup" class="glance-link">${h(link)}<br><span class="small">required margin ${req === undefined ? 'not given' : `${formatFixed(req, 1)} dB`}</span></th>`
+        : '';
+      return `<tr${k === 0 ? ' class="group-start"' : ''}>${linkCell}<td>${h(r.weather)}</td><td class="num"><strong>${h(formatBits(r.networkVolumePerDayBits))}</strong></td>`
         + `<td class="num">${formatFixed(r.usablePassesPerDay, 1)}</td><td class="num">${formatFixed(r.usableMinutesPerDay, 1)}</td>`
-        + `<td class="num ${worstCls}">${formatFixed(r.worstMarginDB, 1)}</td><td class="num">${formatFixed(r.bestMarginDB, 1)}</td>`
+        + `<td class="num${worstCls}">${formatFixed(r.worstMarginDB, 1)}</td><td class="num">${formatFixed(r.bestMarginDB, 1)}</td>`
         + `<td class="num">${r.verdicts.usable} / ${r.verdicts.marginal} / ${r.verdicts.unusable}</td></tr>`;
     }).join('');
-    return `<div class="card"><h3>${h(link)}</h3>
-<table><thead><tr><th>weather</th><th class="num">network volume per day</th><th class="num">usable passes per day</th><th class="num">usable min per day</th><th class="num">worst margin (dB)</th><th class="num">best margin (dB)</th><th class="num">passes usable / marginal / unusable</th></tr></thead><tbody>${body}</tbody></table>
-<p class="small">required margin ${req === undefined ? 'not given' : `${formatFixed(req, 1)} dB`}; worst margin below it is shown in red.</p></div>`;
   }).join('');
-  return `<section id="glance"><h2>At a glance</h2><div class="glance">${cards}</div></section>`;
+  return `<section id="glance"><h2>At a glance</h2>
+<table class="glance"><thead><tr><th>link</th><th>weather</th><th class="num">network volume per day</th><th class="num">usable passes per day</th><th class="num">usable minutes per day</th><th class="num">worst margin (dB)</th><th class="num">best margin (dB)</th><th class="num">passes usable / marginal / unusable</th></tr></thead>
+<tbody>${body}</tbody></table>
+<p class="small">Network figures count every station (see network counting above); margins are over every step of every pass of the link. A worst margin below the link's required margin is shown in red.</p></section>`;
 }

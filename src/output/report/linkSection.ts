@@ -6,7 +6,7 @@ import { escapeHtml as h } from './escape.js';
 import { caseVolumeBits, formatBits, formatFixed } from './format.js';
 import { NETWORK } from './glance.js';
 import { legend } from './legend.js';
-import { REQUIRED_LINE, seriesStyle } from './palette.js';
+import { REQUIRED_LINE, seriesStyle, stationStyles } from './palette.js';
 import { passDetail } from './passDetail.js';
 import { tradeChart } from './tradeChart.js';
 import type { PassSeries } from './types.js';
@@ -38,18 +38,19 @@ function dailyTable(c: LinkContext, keys: string[]): string {
     const cls = st === NETWORK ? ' style="font-weight:600"' : '';
     return `<tr${cls}><td>${h(day)}</td><td>${h(st)}</td><td class="num">${any.passes}</td>${cells}</tr>`;
   })).join('');
-  return `<table><thead>${head}</thead><tbody>${rows}</tbody></table>`;
+  return `<table class="daily"><thead>${head}</thead><tbody>${rows}</tbody></table>`;
 }
 
 export function linkSection(c: LinkContext): string {
   const keys = [...c.stations.filter((s) => c.daily.some((r) => r.station === s)), ...(c.daily.some((r) => r.station === NETWORK) ? [NETWORK] : [])];
-  const stationStyles = keys.map((k, i) => seriesStyle(i, k));
+  const styles = stationStyles(keys);
+  const keyStyles = keys.map((k) => styles.get(k)!);
   const bars = c.weatherCases.map((w) => {
     const groups = barGroups(c.daily.filter((r) => r.weather === w), keys);
     return `<figure>${barChart(`Data volume per day, ${c.link}, ${w}`, groups, keys)}<figcaption>Volume per UTC day, weather case <strong>${h(w)}</strong>.</figcaption></figure>`;
   }).join('');
   let out = `<section class="link" id="${c.anchor}"><h2>Link ${h(c.link)}</h2>
-<h3>Data volume per day</h3><div class="charts">${bars}</div>${legend(stationStyles, 'box')}
+<h3>Data volume per day</h3><div class="charts">${bars}</div>${legend(keyStyles, 'box')}
 <h3>Passes and usable minutes per day</h3>${dailyTable(c, keys)}`;
 
   const envs = envelopesForLink(c.passes.map((p) => p.series).filter((s): s is PassSeries => s !== undefined), c.weatherCases);
@@ -72,7 +73,9 @@ ${legend(envs.map((e, i) => seriesStyle(i, `${e.weather} (lowest margin; band to
       const t = kind === 'mask' ? `Daily volume against elevation mask, ${c.link}, ${w}` : `Daily volume against bit rate, ${c.link}, ${w}`;
       return `<figure>${tradeChart(t, sel, [...c.stations, NETWORK], kind)}<figcaption>${kind === 'mask' ? 'Volume per day against the elevation mask' : 'Volume per day against the fixed bit rate'}, weather case <strong>${h(w)}</strong>.</figcaption></figure>`;
     }).join('');
-    return `<h3>${kind === 'mask' ? 'Mask trade' : 'Rate trade'}</h3><div class="charts">${charts}</div>`;
+    const tk = [...c.stations, NETWORK].filter((s) => pts.some((p) => p.station === s));
+    const ts = stationStyles(tk);
+    return `<h3>${kind === 'mask' ? 'Mask trade' : 'Rate trade'}</h3><div class="charts">${charts}</div>${legend(tk.map((k) => ts.get(k)!), 'line')}`;
   };
   out += trade('mask') + trade('rate');
 

@@ -22,6 +22,17 @@ export const GROUND_FILL = '#d9cbb3';
 
 export interface SeriesStyle { colour: string; textColour: string; dash: string; name: string }
 
+/**
+ * Styles for stations and the network: the network, the headline figure, takes
+ * the darkest colour; stations follow in palette order.
+ */
+export function stationStyles(keys: string[], network = '(network)'): Map<string, SeriesStyle> {
+  const m = new Map<string, SeriesStyle>();
+  let i = keys.includes(network) ? 1 : 0;
+  for (const k of keys) m.set(k, k === network ? seriesStyle(0, k) : seriesStyle(i++, k));
+  return m;
+}
+
 export function seriesStyle(index: number, name: string): SeriesStyle {
   const i = ((index % SERIES_COLOURS.length) + SERIES_COLOURS.length) % SERIES_COLOURS.length;
   // Past the palette length the dash pattern changes, so the pair (colour, dash) stays unique up to 16 series.

@@ -60,7 +60,11 @@ export function skyPlot(title: string, track: SkyTrack, mask: [number, number][]
   for (const e of p.ticks) {
     if (e >= 90) continue;
     body += tag('circle', { cx: p.cx, cy: p.cy, r: p.r(e), fill: 'none', stroke: e === 0 ? INK : GRID });
-    body += text({ x: p.cx + 3, y: p.cy - p.r(e) + 11, class: 'tick' }, `${e}°`);
+    if (e > 0) {
+      // Ring labels along the SSE bearing, away from the N/E/S/W letters.
+      const [tx, ty] = p.xy(157.5, e);
+      body += text({ x: tx + 2, y: ty - 2, class: 'tick' }, `${e}°`);
+    }
   }
   for (let az = 0; az < 360; az += 30) {
     const [x, y] = p.xy(az, 0);

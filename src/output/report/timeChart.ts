@@ -14,7 +14,7 @@ import type { PassSeries } from './types.js';
 
 export type TimeMetric = 'margin' | 'ebn0';
 
-export const TIME_FRAME: Frame = { width: 520, height: 250, margin: { top: 22, right: 60, bottom: 44, left: 54 } };
+export const TIME_FRAME: Frame = { width: 420, height: 250, margin: { top: 22, right: 60, bottom: 44, left: 54 } };
 
 export interface TimeScales { x: ScaleLinear<number, number>; y: ScaleLinear<number, number>; area: PlotArea }
 
@@ -59,7 +59,8 @@ export function timeChart(series: PassSeries, pass: PassLinkSummary, metric: Tim
   if (reference !== null) {
     const yr = y(reference);
     body += tag('line', { class: 'required', x1: area.x0, x2: area.x1, y1: yr, y2: yr, stroke: REQUIRED_LINE, 'stroke-width': 1.5, 'stroke-dasharray': '4 2' });
-    body += text({ x: area.x1 + 4, y: yr + 4, class: 'direct-label', fill: REQUIRED_LINE }, `required ${reference} dB`);
+    // Mid-pass is where the margin peaks, so the label there rarely sits on a curve.
+    body += text({ x: (area.x0 + area.x1) / 2, y: yr - 4, 'text-anchor': 'middle', class: 'direct-label', fill: REQUIRED_LINE }, `required ${reference} dB`);
   }
   const t = series.timeS.map(tMin);
   const clip = `clip-${uid}-${metric}`;

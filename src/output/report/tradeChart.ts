@@ -6,11 +6,11 @@ import { extent, group, max } from 'd3-array';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { line } from 'd3-shape';
 import { axisBottom, axisLeft } from './axis.js';
-import { seriesStyle } from './palette.js';
+import { stationStyles } from './palette.js';
 import { plotArea, spreadLabels, svgRoot, tag, text, type Frame } from './svg.js';
 import { roundPath } from './timeChart.js';
 
-export const TRADE_FRAME: Frame = { width: 440, height: 250, margin: { top: 14, right: 86, bottom: 44, left: 62 } };
+export const TRADE_FRAME: Frame = { width: 370, height: 250, margin: { top: 14, right: 86, bottom: 44, left: 62 } };
 
 export interface TradePoint { station: string; x: number; dailyVolumeBits: number }
 
@@ -28,8 +28,9 @@ export function tradeChart(title: string, points: TradePoint[], stationOrder: st
   const byStation = group(points, (p) => p.station);
   const keys = stationOrder.filter((s) => byStation.has(s)).concat([...byStation.keys()].filter((s) => !stationOrder.includes(s)));
   const labels: { y: number; name: string; fill: string }[] = [];
-  keys.forEach((k, i) => {
-    const st = seriesStyle(i, k);
+  const styles = stationStyles(keys);
+  keys.forEach((k) => {
+    const st = styles.get(k)!;
     const pts = [...(byStation.get(k) ?? [])].sort((a, b) => a.x - b.x);
     const d = line<TradePoint>().x((p) => x(p.x)).y((p) => y(p.dailyVolumeBits))(pts);
     body += tag('path', { d: roundPath(d ?? ''), fill: 'none', stroke: st.colour, 'stroke-width': 2, 'stroke-dasharray': st.dash, class: 'series' });
