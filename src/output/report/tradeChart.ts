@@ -39,6 +39,8 @@ export function tradeChart(title: string, points: TradePoint[], stationOrder: st
     if (last) labels.push({ y: y(last.dailyVolumeBits), name: k, fill: st.textColour });
   });
   const ly = spreadLabels(labels.map((l) => l.y), 11, area.y0 + 4, area.y1);
-  labels.forEach((l, i) => { body += text({ x: area.x1 + 4, y: ly[i] + 4, class: 'direct-label', fill: l.fill }, l.name); });
+  // Long names are shortened in the direct label only; the legend below the chart carries them in full.
+  const short = (s: string) => ([...s].length > 13 ? `${[...s].slice(0, 12).join('')}…` : s);
+  labels.forEach((l, i) => { body += text({ x: area.x1 + 4, y: ly[i] + 4, class: 'direct-label', fill: l.fill }, short(l.name)); });
   return svgRoot(frame, title, body);
 }
