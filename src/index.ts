@@ -12,3 +12,4 @@ export * from './budget/index.js';
 export * from './scenario/index.js';
 export * from './analysis/index.js';
 export * from './output/index.js';
+export * from './jobs/index.js';

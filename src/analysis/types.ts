@@ -124,4 +124,8 @@ export interface RunSummary {
   inputsSha256: string;
   files: string[];
   cautions: string[];
+  /** Required margin per link name (dB), for the report. */
+  requiredMarginDB?: Record<string, number>;
+  /** Horizon mask per station as an (azimuth, elevation) polyline (deg), for the report. */
+  horizonMasks?: Record<string, [number, number][]>;
 }

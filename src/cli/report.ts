@@ -1,4 +1,13 @@
 import type { Command } from 'commander';
+import { rebuildReport } from '../jobs/report.js';
 
-/** Not yet wired. */
-export function register(_program: Command): void {}
+export function register(program: Command): void {
+  program
+    .command('report')
+    .description('rebuild report.html from an existing output folder of passbudget run')
+    .argument('<dir>', 'output folder (holds summary.json, passes.json, daily.csv; steps.csv, mask.csv, rate.csv when present)')
+    .action(async (dir: string) => {
+      const file = await rebuildReport(dir);
+      process.stdout.write(`report written: ${file}\n`);
+    });
+}

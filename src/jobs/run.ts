@@ -66,10 +66,8 @@ export function maskResults(scenario: ResolvedScenario, p: PipelineResult): { tr
   return { trade, findings };
 }
 
-export function reportInput(
-  scenario: ResolvedScenario, summary: RunSummary, p: PipelineResult,
-  extra: Pick<ReportInput, 'maskTrade' | 'maskFindings' | 'rateTrade'> = {},
-): ReportInput {
+/** Per-link required margins and per-station horizon polylines, kept in summary.json for the report. */
+export function reportContext(scenario: ResolvedScenario): Pick<ReportInput, 'requiredMarginDB' | 'horizonMasks'> {
   const requiredMarginDB: Record<string, number> = {};
   for (const l of scenario.links) requiredMarginDB[l.name] = l.requiredMarginDB;
   const horizonMasks: Record<string, [number, number][]> = {};
@@ -79,7 +77,14 @@ export function reportInput(
       ? [[0, m.elevationDeg], [360, m.elevationDeg]]
       : [...m.points.map(([a, e]) => [a, e] as [number, number]), [m.points[0][0] + 360, m.points[0][1]]];
   }
-  return { summary, passes: p.passLinks, daily: p.daily, series: p.series, requiredMarginDB, horizonMasks, ...extra };
+  return { requiredMarginDB, horizonMasks };
+}
+
+export function reportInput(
+  scenario: ResolvedScenario, summary: RunSummary, p: PipelineResult,
+  extra: Pick<ReportInput, 'maskTrade' | 'maskFindings' | 'rateTrade'> = {},
+): ReportInput {
+  return { summary, passes: p.passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra };
 }
 
 export async function runScenario(scenario: ResolvedScenario, opts: RunOptions = {}): Promise<RunResult> {
@@ -108,7 +113,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
     out.writeFile('passes.ics', renderCalendar(pipeline.passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
     const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
-    const summary = runSummary(scenario, pipeline.daily, fileNames, warnings);
+    const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings })));
     out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
     const files = out.commit();

@@ -1,1 +1,5 @@
-export {};
+export * from './atomic.js';
+export * from './csv.js';
+export * from './ics.js';
+export { renderReport } from './report/index.js';
+export type { PassSeries, ReportInput } from './report/types.js';
