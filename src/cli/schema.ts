@@ -1,4 +1,26 @@
+/**
+ * `passbudget schema`: print the scenario file's JSON Schema (2020-12), or
+ * write it to a file. Wiring only: the schema comes from the library.
+ */
 import type { Command } from 'commander';
+import { InputError } from '../errors.js';
+import { writeFileAtomic } from '../output/atomic.js';
+import { scenarioJsonSchema } from '../scenario/index.js';
 
-/** Not yet wired. */
-export function register(_program: Command): void {}
+export function register(program: Command): void {
+  program
+    .command('schema')
+    .description('Print the JSON Schema (2020-12) of the scenario file')
+    .option('--out <file>', 'write the schema to this file instead of stdout')
+    .action((opts: { out?: string }) => {
+      const text = `${JSON.stringify(scenarioJsonSchema(), null, 2)}\n`;
+      if (opts.out !== undefined) {
+        try {
+          writeFileAtomic(opts.out, text);
+        } catch (e) {
+          throw new InputError(`--out: cannot write ${opts.out} (${(e as NodeJS.ErrnoException).code ?? 'write error'}; allowed a writable file path)`);
+        }
+      }
+      else process.stdout.write(text);
+    });
+}

@@ -9,7 +9,7 @@ import type { ClimateInput } from './schema.js';
 import type { Path } from './source.js';
 import {
   defaultIsothermHeightKm, rainHeightKm, rainRateForZone, saturationVapourPressureHPa, wetRefractivity,
-} from './models-bridge.js';
+} from '../models/index.js';
 
 export interface ResolveContext {
   fail(path: Path, message: string): never;
@@ -69,7 +69,7 @@ export function resolveClimate(
     eHPa = (waterVapourDensityGM3 * temperatureK) / 216.7;
   } else if (c.relative_humidity_pct !== undefined) {
     // ITU-R P.453: e = H e_s / 100; ρ = 216.7 e / T.
-    eHPa = (c.relative_humidity_pct * saturationVapourPressureHPa(temperatureC)) / 100;
+    eHPa = (c.relative_humidity_pct * saturationVapourPressureHPa({ temperatureC })) / 100;
     waterVapourDensityGM3 = (216.7 * eHPa) / temperatureK;
     ctx.recordDefault({ path: P('water_vapour_density_g_m3'), value: fmt(waterVapourDensityGM3), reason: `from relative_humidity_pct and temperature: e = H e_s / 100 (ITU-R P.453), ρ = 216.7 e / T` });
   } else {

@@ -15,7 +15,7 @@ export * from './types.js';
 export { scenarioSchema, scenarioJsonSchema, RAIN_ZONES, MODULATIONS, NOISE_ENVIRONMENTS } from './schema.js';
 export type { ScenarioInput } from './schema.js';
 export { referenceAtmosphere } from './climate.js';
-export { DEFAULT_RATE_CANDIDATES_BPS, MIN_FREQUENCY_GHZ, MODULATION_BITS } from './resolve.js';
+export { DEFAULT_RATE_CANDIDATES_BPS, MIN_FREQUENCY_GHZ } from './resolve.js';
 export { formatPath } from './source.js';
 
 /**

@@ -6,14 +6,17 @@ import { existsSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 import type { ElementSet } from '../elements/types.js';
 import { loadElementsFile } from '../elements/index.js';
-import type { LinkEnd, LinkSpec, ModCodSpec, Modulation, WeatherCase } from '../budget/types.js';
+import type { LinkEnd, LinkSpec, ModCodSpec, WeatherCase } from '../budget/types.js';
 import type { HorizonMask, Station } from '../geometry/types.js';
 import { parseDuration, parseIsoUtc } from '../orbit/time.js';
 import { resolveClimate, type ResolveContext } from './climate.js';
 import {
   resolveAntenna, resolveGroundPointing, resolvePolarisation, resolveReceiver, resolveSpacecraftPointing, resolveTransmitter,
 } from './ends.js';
-import { codingProfileNames, dvbs2Modes, findCodingProfile, frequencyValidity, requiredEbN0DB } from './models-bridge.js';
+import {
+  CODING_PROFILES, DVBS2_MODES, MODULATION_BITS_PER_SYMBOL, P372_VALIDITY, P618_RAIN_VALIDITY, P618_SCINTILLATION_VALIDITY,
+  P676_SLANT_VALIDITY, codingProfile, requiredEbN0DB, type Interval,
+} from '../models/index.js';
 import type { LinkInput, ScenarioInput, StationInput, TerminalInput } from './schema.js';
 import { formatPath, type Path, type ScenarioSource } from './source.js';
 import type { AppliedDefault, NetworkPolicy, ResolvedScenario, ScenarioSatellite, ScenarioStation } from './types.js';
@@ -21,8 +24,18 @@ import type { AppliedDefault, NetworkPolicy, ResolvedScenario, ScenarioSatellite
 /** Lowest carrier frequency accepted (GHz): below ~30 MHz the ionosphere reflects (common practice, from memory). */
 export const MIN_FREQUENCY_GHZ = 0.03;
 
-/** Bits per channel symbol of each modulation, before coding. */
-export const MODULATION_BITS: Record<Modulation, number> = { bpsk: 1, qpsk: 2, dbpsk: 1, 'bfsk-coherent': 1, 'bfsk-noncoherent': 1 };
+interface Validity { rain: Interval; exceedance: Interval; scintillation: Interval; gas: Interval; externalNoiseMHz: readonly [number, number] }
+
+/** Frequency and exceedance ranges of the models, as the models declare them. */
+function frequencyValidity(): Validity {
+  return {
+    rain: P618_RAIN_VALIDITY.frequencyGHz,
+    exceedance: P618_RAIN_VALIDITY.exceedancePercent,
+    scintillation: P618_SCINTILLATION_VALIDITY.frequencyGHz,
+    gas: P676_SLANT_VALIDITY.frequencyGHz,
+    externalNoiseMHz: P372_VALIDITY.frequencyMHz,
+  };
+}
 
 /** Rate-finder candidates when the scenario gives none (b/s): common telemetry and payload rates. */
 export const DEFAULT_RATE_CANDIDATES_BPS = [1200, 2400, 4800, 9600, 19_200, 38_400, 57_600, 115_200, 250_000, 500_000, 1e6, 2e6, 5e6, 10e6, 20e6, 50e6, 100e6];
@@ -243,7 +256,7 @@ function resolveStation(s: StationInput, i: number, ctx: ResolveContext, src: Sc
 
 function resolveLink(
   link: LinkInput, at: Path, satellite: string, stationsIn: StationInput[], stationByName: Map<string, number>,
-  ctx: ResolveContext, src: ScenarioSource, validity: ReturnType<typeof frequencyValidity>,
+  ctx: ResolveContext, src: ScenarioSource, validity: Validity,
 ): LinkSpec[] {
   const P = (...k: (string | number)[]) => formatPath([...at, ...k]);
   // Frequency.
@@ -253,6 +266,9 @@ function resolveLink(
   const frequencyGHz = link.frequency_ghz ?? (link.frequency_mhz as number) / 1000;
   if (frequencyGHz < MIN_FREQUENCY_GHZ || frequencyGHz > validity.rain[1]) {
     src.fail([...at, fKey], `${fmtNum(frequencyGHz)} GHz is outside the models' range ${MIN_FREQUENCY_GHZ}–${validity.rain[1]} GHz (upper limit: ITU-R P.618 rain attenuation)`);
+  }
+  if (frequencyGHz * 1000 > validity.externalNoiseMHz[1] && frequencyGHz < 1) {
+    ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz * 1000)} MHz is above the ${validity.externalNoiseMHz[1]} MHz limit of the ITU-R P.372 external-noise curves; they are extrapolated`);
   }
   if (frequencyGHz < validity.rain[0]) {
     ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz)} GHz is below the ${validity.rain[0]} GHz lower limit of ITU-R P.618/P.838 rain and P.676 gas models; those terms are negligible there and treated as such by the engine`);
@@ -354,7 +370,7 @@ function resolveModcod(link: LinkInput, at: Path, ctx: ResolveContext, src: Scen
   const P = (k: string) => formatPath([...mAt, k]);
   if (m.type === 'adaptive') {
     if (m.modes === 'dvb-s2') {
-      return { kind: 'adaptive', symbolRateBaud: m.symbol_rate_baud, modes: dvbs2Modes() };
+      return { kind: 'adaptive', symbolRateBaud: m.symbol_rate_baud, modes: DVBS2_MODES.map((x) => ({ ...x })) };
     }
     const dup = duplicates(m.modes.map((x) => x.name));
     if (dup) src.fail([...mAt, 'modes', dup[1], 'name'], `duplicate mode name ${JSON.stringify(dup[0])}`);
@@ -366,9 +382,12 @@ function resolveModcod(link: LinkInput, at: Path, ctx: ResolveContext, src: Scen
   }
   const coding = m.coding ?? 'uncoded';
   if (m.coding === undefined) ctx.recordDefault({ path: P('coding'), value: 'uncoded', reason: 'no coding profile given' });
-  const profile = findCodingProfile(coding);
-  if (!profile && coding !== 'uncoded') {
-    src.fail([...mAt, 'coding'], `unknown coding profile ${JSON.stringify(coding)} (allowed: ${[...new Set(['uncoded', ...codingProfileNames()])].join(', ')})`);
+  if (!Object.prototype.hasOwnProperty.call(CODING_PROFILES, coding)) {
+    src.fail([...mAt, 'coding'], `unknown coding profile ${JSON.stringify(coding)} (allowed: ${Object.keys(CODING_PROFILES).join(', ')})`);
+  }
+  const profile = coding === 'uncoded' ? null : codingProfile(coding);
+  if (profile && m.modulation !== 'bpsk' && m.modulation !== 'qpsk' && m.required_eb_n0_db === undefined) {
+    ctx.warn(`${P('coding')}: the profile ${coding} is stated for coherent BPSK/QPSK, not ${m.modulation}; give required_eb_n0_db for this modem`);
   }
   const codeRate = profile?.codeRate ?? 1;
   const ber = m.ber ?? 1e-5;
@@ -381,7 +400,9 @@ function resolveModcod(link: LinkInput, at: Path, ctx: ResolveContext, src: Scen
     ctx.recordDefault({ path: P('required_eb_n0_db'), value: required.toFixed(2), reason: `uncoded ${m.modulation} at BER ${ber < 1e-3 ? ber.toExponential() : ber}, closed form (Sklar, Digital Communications)` });
   } else {
     required = (profile as NonNullable<typeof profile>).requiredEbN0DB;
-    if (m.ber !== undefined) ctx.warn(`${P('ber')}: ignored; the coding profile ${coding} fixes the required Eb/N0 (${profile!.source})`);
+    if (m.ber !== undefined && m.ber !== profile!.targetBitErrorRate) {
+      ctx.warn(`${P('ber')}: ${m.ber} ignored; the coding profile ${coding} is stated at BER ${profile!.targetBitErrorRate} (${profile!.source})`);
+    }
     ctx.recordDefault({ path: P('required_eb_n0_db'), value: required.toFixed(2), reason: `coding profile ${coding}: ${profile!.source}` });
   }
   return {
@@ -390,6 +411,6 @@ function resolveModcod(link: LinkInput, at: Path, ctx: ResolveContext, src: Scen
     modulation: m.modulation,
     coding,
     requiredEbN0DB: required,
-    bitsPerSymbol: MODULATION_BITS[m.modulation] * codeRate,
+    bitsPerSymbol: MODULATION_BITS_PER_SYMBOL[m.modulation] * codeRate,
   };
 }

@@ -158,7 +158,9 @@ export function describeIssue(issue: Issue, value: unknown, base: Path = []): [P
     case 'invalid_union': {
       if (issue.discriminator) {
         const opts = ((issue as { options?: unknown[] }).options ?? []).map((o) => String(o)).join(', ');
-        return [[...path, issue.discriminator], `must be one of ${opts} (got ${show(getAt(value, [...path, issue.discriminator]))})`];
+        // zod 4 already puts the discriminator key at the end of the path; older versions did not.
+        const at = path[path.length - 1] === issue.discriminator ? path : [...path, issue.discriminator];
+        return [at, `must be one of ${opts} (got ${show(getAt(value, at))})`];
       }
       const branch = bestBranch(issue.errors);
       if (branch) return describeIssue(branch[0], value, path);
@@ -179,7 +181,11 @@ export function describeIssue(issue: Issue, value: unknown, base: Path = []): [P
 export function validateWith<T>(schema: z.ZodType<T>, source: ScenarioSource): T {
   const result = schema.safeParse(source.value);
   if (result.success) return result.data;
-  const described = result.error.issues.map((i) => describeIssue(i, source.value));
+  let described = result.error.issues.map((i) => describeIssue(i, source.value));
+  // A misspelt key (diameter_cm) also makes the right one (diameter_m) missing: report the misspelling.
+  const unknownIn = new Set(result.error.issues.filter((i) => i.code === 'unrecognized_keys').map((i) => formatPath(i.path as PathKey[])));
+  const filtered = described.filter(([p, m]) => !(m.startsWith('missing') && unknownIn.has(formatPath(p.slice(0, -1)))));
+  if (filtered.length) described = filtered;
   described.sort((a, b) => source.lineOf(a[0]) - source.lineOf(b[0]));
   const [path, message] = described[0];
   return source.fail(path, message);
