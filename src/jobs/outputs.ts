@@ -4,7 +4,9 @@
  * every column name; times are ISO-8601 UTC with milliseconds; volumes are
  * given in bits and in MB (10^6 bytes).
  */
+import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
 import { STEP_COLUMNS, CASE_COLUMNS } from '../budget/columns.js';
 import type { StepBudget, WeatherCase } from '../budget/types.js';
 import { bitsToMegabytes } from '../analysis/units.js';
@@ -12,14 +14,12 @@ import { runTotals } from '../analysis/stats.js';
 import type { DailyRow, PassLinkSummary, RunSummary } from '../analysis/types.js';
 import type { StepEvent } from '../analysis/pipeline.js';
 import { fmt, type CsvCell } from '../output/csv.js';
+import { STANDING_CAUTIONS } from '../output/report/header.js';
 import { formatIsoUtc } from '../orbit/time.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 
-export const CAUTIONS = [
-  'Results are planning estimates: statistical propagation models (annual exceedance, not a forecast), ageing element sets and approximate coding thresholds.',
-  'Transmitting requires the proper licences and frequency coordination.',
-  'RF exposure near transmit antennas follows local regulations.',
-];
+/** The standing cautions, worded once (the report shows the same list). */
+export const CAUTIONS: readonly string[] = STANDING_CAUTIONS;
 
 /** Decimals per numeric column (by unit suffix), so files stay readable and deterministic. */
 function decimalsFor(column: string): number {
@@ -148,13 +148,21 @@ export const MODELS_USED = [
   { name: 'Modulation and coding', source: 'uncoded BER closed forms; coding profiles and DVB-S2 EN 302 307-1 Table 13 (from memory)' },
 ];
 
+/** A dependency's version from its package.json, found beside its resolved entry point (exports maps hide `pkg/package.json`). */
 function packageVersion(name: string): string {
   try {
     const require = createRequire(import.meta.url);
-    return (require(`${name}/package.json`) as { version: string }).version;
-  } catch {
-    return 'unknown';
-  }
+    let dir = dirname(require.resolve(name));
+    for (let i = 0; i < 5; i++) {
+      const file = join(dir, 'package.json');
+      if (existsSync(file)) {
+        const pkg = JSON.parse(readFileSync(file, 'utf8')) as { name?: string; version: string };
+        if (pkg.name === name) return pkg.version;
+      }
+      dir = dirname(dir);
+    }
+  } catch { /* fall through */ }
+  return 'unknown';
 }
 
 export function softwareVersions(): { name: string; version: string }[] {
@@ -164,6 +172,7 @@ export function softwareVersions(): { name: string; version: string }[] {
   return [
     { name: 'passbudget', version: own },
     { name: 'satellite.js', version: packageVersion('satellite.js') },
+    { name: 'luxon', version: packageVersion('luxon') },
     { name: 'node', version: process.versions.node },
   ];
 }
@@ -190,6 +199,6 @@ export function runSummary(
     warnings: [...scenario.warnings, ...extraWarnings],
     inputsSha256: scenario.inputsSha256,
     files,
-    cautions: CAUTIONS,
+    cautions: [...CAUTIONS],
   };
 }

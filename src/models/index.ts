@@ -10,8 +10,7 @@ export * from './p840.js';
 export * from './p453.js';
 export * from './p372.js';
 export * from './p531.js';
-// P.834 under prefixed names: src/geometry already exports refractionDeg/apparentElevationDeg (positional).
-export { P834_VALIDITY, apparentElevationDeg as p834ApparentElevationDeg, refractionDeg as p834RefractionDeg } from './p834.js';
+// ITU-R P.834 refraction lives in src/geometry/refraction.ts (one implementation, applied to the apparent elevation as P.834 defines it).
 export * from './noise.js';
 export * from './antenna.js';
 export * from './polarisation.js';

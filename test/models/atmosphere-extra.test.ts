@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { cloudAttenuation, cloudSpecificCoefficient } from '../../src/models/p840.js';
 import { saturationVapourPressureHPa, wetRefractivity } from '../../src/models/p453.js';
-import { apparentElevationDeg, refractionDeg } from '../../src/models/p834.js';
 import { defaultIsothermHeightKm, rainHeightKm } from '../../src/models/p839.js';
 import { rainRateForZone } from '../../src/models/p837.js';
 
@@ -33,19 +32,6 @@ describe('wet refractivity (ITU-R P.453)', () => {
     const es = saturationVapourPressureHPa({ temperatureC: 15 });
     expect(wetRefractivity({ temperatureC: 15, relativeHumidityPercent: 60 })).toBeCloseTo((3.732e5 * 0.6 * es) / 288.15 ** 2, 10);
     expect(wetRefractivity({ temperatureC: 15, relativeHumidityPercent: 0 })).toBe(0);
-  });
-});
-
-describe('refraction (ITU-R P.834, from memory)', () => {
-  it('gives about 0.76° at the horizon, 0.19° at 5° and 0.09° at 10° for a sea-level station (PHYSICS.md §11, from memory)', () => {
-    expect(refractionDeg({ elevationDeg: 0, heightKm: 0 })).toBeCloseTo(0.761, 3);
-    expect(refractionDeg({ elevationDeg: 5, heightKm: 0 })).toBeCloseTo(0.19, 2);
-    expect(refractionDeg({ elevationDeg: 10, heightKm: 0 })).toBeCloseTo(0.094, 3);
-  });
-  it('decreases with station height and elevation; apparent elevation adds it and stays ≤ 90°', () => {
-    expect(refractionDeg({ elevationDeg: 2, heightKm: 2 })).toBeLessThan(refractionDeg({ elevationDeg: 2, heightKm: 0 }));
-    expect(apparentElevationDeg({ elevationDeg: 3, heightKm: 0.5 })).toBeCloseTo(3 + refractionDeg({ elevationDeg: 3, heightKm: 0.5 }), 12);
-    expect(apparentElevationDeg({ elevationDeg: 90, heightKm: 0 })).toBe(90);
   });
 });
 
