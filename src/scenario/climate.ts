@@ -118,7 +118,7 @@ export function resolveClimate(
     let iso = c.isotherm_height_km;
     if (iso === undefined) {
       iso = defaultIsothermHeightKm({ latitudeDeg: station.latitudeDeg });
-      ctx.recordDefault({ path: P('isotherm_height_km'), value: fmt(iso), reason: 'older ITU-R P.839 latitude rule for the 0 °C isotherm height (from memory, rough)' });
+      ctx.recordDefault({ path: P('isotherm_height_km'), value: fmt(iso), reason: 'older ITU-R P.839 latitude rule for the 0 °C isotherm height (from memory), rough' });
     }
     rainHeight = rainHeightKm({ isothermHeightKm: iso });
     ctx.recordDefault({ path: P('rain_height_km'), value: fmt(rainHeight), reason: 'ITU-R P.839: h_R = h_0 + 0.36 km' });
