@@ -201,6 +201,7 @@ export function resolveScenarioInput(
   let dir: string | null = null;
   if (opts.outDir !== undefined) dir = path.resolve(opts.outDir);
   else if (input.output?.dir !== undefined) dir = path.resolve(opts.baseDir, input.output.dir);
+  else ctx.recordDefault({ path: 'output.dir', value: `out/${input.name}`, reason: 'out/<scenario name> under the working directory' });
   const steps = input.output?.steps ?? false;
   if (input.output?.steps === undefined) ctx.recordDefault({ path: 'output.steps', value: 'false', reason: 'per-step series not written unless asked' });
 
