@@ -115,6 +115,56 @@ describe('network volume ≤ Σ station volumes (each second counted once)', () 
   });
 });
 
+describe('network volume recomputed step by step (best-margin policy)', () => {
+  // Both stations run the same links (same bit rate, same mode table, same losses), so at
+  // a grid time where several stations can take the satellite, the station with the most
+  // margin over a common threshold is the one with the highest Es/N0, and so (for the
+  // adaptive link) the one delivering the highest information rate. The network's volume
+  // for a day is then Σ over grid times of the highest rate among the stations × step.
+  let best: Map<string, number>;
+  let net: DailyRow[];
+  beforeAll(async () => {
+    best = new Map();
+    const perTime = new Map<string, number>();
+    const names = caseNames();
+    const p = await runPipeline({
+      scenario,
+      onStep: (e) => {
+        e.step.cases.forEach((c, ci) => {
+          const k = `${e.timeS}|${e.link.name}|${names[ci]}`;
+          perTime.set(k, Math.max(perTime.get(k) ?? 0, c.information_rate_bps));
+        });
+      },
+    });
+    for (const [k, rate] of perTime) {
+      const [t, link, weather] = k.split('|');
+      const day = new Date(Number(t) * 1000).toISOString().slice(0, 10);
+      const dk = `${day}|${link}|${weather}`;
+      best.set(dk, (best.get(dk) ?? 0) + rate * scenario.window.stepS);
+    }
+    net = p.daily.filter((d) => d.station === NET);
+  });
+
+  it('fixed-rate link: network volume = rate × grid times with at least one usable station', () => {
+    const rows = net.filter((d) => !isAdaptive(d.link));
+    expect(rows.length).toBe(2 * caseNames().length);
+    for (const d of rows) {
+      const want = best.get(`${d.dayUtc}|${d.link}|${d.weather}`) ?? 0;
+      expect(d.fixedVolumeBits, `${d.dayUtc} ${d.link} ${d.weather}`).toBeCloseTo(want, 0);
+    }
+  });
+
+  it('adaptive link: network volume = Σ highest station rate × step (the network takes the best station)', () => {
+    const rows = net.filter((d) => isAdaptive(d.link));
+    expect(rows.length).toBe(2 * caseNames().length);
+    const off = rows.map((d) => {
+      const want = best.get(`${d.dayUtc}|${d.link}|${d.weather}`) ?? 0;
+      return { key: `${d.dayUtc} ${d.link} ${d.weather}`, got: d.adaptiveVolumeBits!, want, rel: Math.abs(d.adaptiveVolumeBits! - want) / want };
+    }).filter((r) => r.rel > 1e-9).map((r) => `${r.key}: network ${(r.got / 8e6).toFixed(3)} MB, best station per step ${(r.want / 8e6).toFixed(3)} MB`);
+    expect(off).toEqual([]);
+  });
+});
+
 describe('pass and day volumes recomputed from steps.csv', () => {
   it('steps.csv carries one information_rate_bps and usable column per case', () => {
     for (const c of caseNames()) {
