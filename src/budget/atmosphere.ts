@@ -65,6 +65,8 @@ export interface AtmosphereContext {
   cloudArgs: Parameters<typeof cloudAttenuation>[0];
   cloudClearArgs: Parameters<typeof cloudAttenuation>[0];
   scintArgs: Parameters<typeof scintillationFade>[0];
+  /** (f / f_eval)^(7/12): P.618-13 §2.4.1's σ ∝ f^(7/12), carrying the fade from the model's lower limit down to f. */
+  scintillationScale: number;
   totalArgs: Parameters<typeof totalAttenuation>[0];
   skyArgs: Parameters<typeof skyNoiseTemperatureK>[0];
   sysArgs: Parameters<typeof systemNoiseTemperatureK>[0];
@@ -106,7 +108,7 @@ export function createAtmosphereContext(
   }
   if (rainF !== f) notes.push(`rain attenuation evaluated at ${RAIN_MIN_GHZ} GHz (P.618/P.838 lower limit; an over-estimate at ${f} GHz)`);
   if (scintF !== f && weatherCases.some((w) => w.exceedancePercent !== null)) {
-    notes.push(`scintillation evaluated at ${SCINT_MIN_GHZ} GHz (P.618 §2.4.1 lower limit, from memory; an over-estimate at ${f} GHz)`);
+    notes.push(`scintillation evaluated at ${SCINT_MIN_GHZ} GHz (P.618 §2.4.1 lower limit, from memory) and scaled by the model's own f^(7/12) law to ${f} GHz (aperture averaging kept at ${SCINT_MIN_GHZ} GHz: slightly pessimistic)`);
   }
 
   const pol = link.ground.polarisation;
@@ -151,6 +153,7 @@ export function createAtmosphereContext(
       frequencyGHz: scintF, elevationDeg: 0, exceedancePercent: 1,
       antennaDiameterM: groundPattern.apertureDiameterM, antennaEfficiency: groundPattern.apertureEfficiency, nWet: climate.nWet,
     },
+    scintillationScale: (f / scintF) ** (7 / 12),
     totalArgs: {
       exceedancePercent: 1, gasDB: 0, gasAt1PctDB: 0, cloudDB: 0, cloudAt1PctDB: 0, rainDB: 0, scintillationDB: 0,
     },
@@ -192,7 +195,7 @@ export function atmosphereAt(ctx: AtmosphereContext, elevationDeg: number, out: 
       ctx.rainArgs.elevationDeg = el; ctx.rainArgs.exceedancePercent = p;
       rain = rainAttenuation(ctx.rainArgs).attenuationDB;
       ctx.scintArgs.elevationDeg = el; ctx.scintArgs.exceedancePercent = p;
-      scint = scintillationFade(ctx.scintArgs);
+      scint = scintillationFade(ctx.scintArgs) * ctx.scintillationScale;
       const t = ctx.totalArgs;
       t.exceedancePercent = p; t.gasDB = gas; t.gasAt1PctDB = gas; t.cloudDB = cl; t.cloudAt1PctDB = cl;
       t.rainDB = rain; t.scintillationDB = scint;
