@@ -19,9 +19,14 @@ function obj<T extends z.core.$ZodLooseShape>(shape: T) {
 
 const d = (description: string) => ({ description });
 
-const NAME_RE = /^[A-Za-z0-9][A-Za-z0-9 _.+-]*$/;
+/** Scenario names become folder names (out/<name>), so they stay plain. */
+const FOLDER_NAME_RE = /^[A-Za-z0-9][A-Za-z0-9 _.+-]*$/;
+const folderName = (what: string) =>
+  z.string().regex(FOLDER_NAME_RE, { error: `must be a name of letters, digits, space, _ . + - starting with a letter or digit` }).meta(d(`${what} name`));
+/** Satellite, station, link and terminal names are free text (any script), shown escaped in every output. */
+const NAME_RE = /^[^\s\p{Cc}](?:[^\p{Cc}]{0,78}[^\s\p{Cc}])?$/u;
 const name = (what: string) =>
-  z.string().regex(NAME_RE, { error: `must be a name of letters, digits, space, _ . + - starting with a letter or digit` }).meta(d(`${what} name`));
+  z.string().regex(NAME_RE, { error: 'must be 1 to 80 characters with no control characters and no leading or trailing space' }).meta(d(`${what} name`));
 
 const num = () => z.number();
 const nonNeg = () => z.number().min(0);
@@ -263,7 +268,7 @@ export const outputSchema = obj({
 }).meta({ title: 'Output options' });
 
 export const scenarioSchema = obj({
-  name: name('Scenario'),
+  name: folderName('Scenario'),
   description: z.string().optional().meta(d('Free text')),
   window: windowSchema,
   weather: weatherSchema.optional(),
