@@ -272,9 +272,9 @@ function resolveLink(
     ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz * 1000)} MHz is above the ${validity.externalNoiseMHz[1]} MHz limit of the ITU-R P.372 external-noise curves; they are extrapolated`);
   }
   if (frequencyGHz < validity.rain[0]) {
-    ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz)} GHz is below the ${validity.rain[0]} GHz lower limit of ITU-R P.618/P.838 rain and P.676 gas models; those terms are negligible there and treated as such by the engine`);
+    ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz)} GHz is below the ${validity.rain[0]} GHz lower limit of ITU-R P.618/P.838 rain and P.676 gas models; the engine evaluates gas, rain and cloud at that limit instead (a small over-estimate)`);
   } else if (frequencyGHz < validity.scintillation[0]) {
-    ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz)} GHz is below the ${validity.scintillation[0]} GHz lower limit of the ITU-R P.618 scintillation model (small there)`);
+    ctx.warn(`${P(fKey)}: ${fmtNum(frequencyGHz)} GHz is below the ${validity.scintillation[0]} GHz lower limit of the ITU-R P.618 scintillation model; the engine evaluates it there and scales it by the model's f^(7/12) law`);
   }
 
   // Stations and terminal.
