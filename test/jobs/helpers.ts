@@ -73,17 +73,19 @@ export function folderBytes(dir: string): Map<string, Buffer> {
 }
 
 /**
- * The demo scenario cut to `duration` (default one day), written into `dir`
- * with absolute element paths and no output.dir, so it runs from anywhere.
+ * The demo scenario cut to `duration` (default one day, from the demo's own
+ * start unless `start` is given), written into `dir` with absolute element
+ * paths and no output.dir, so it runs from anywhere.
  */
-export function writeDemoCopy(dir: string, duration = '1d'): string {
+export function writeDemoCopy(dir: string, duration = '1d', start?: string): string {
   const doc = parse(readFileSync(DEMO, 'utf8')) as {
-    window: { duration?: string; end?: string };
+    window: { start: string; duration?: string; end?: string };
     satellites: { elements: string }[];
     output?: { dir?: string };
   };
   delete doc.window.end;
   doc.window.duration = duration;
+  if (start) doc.window.start = start;
   for (const s of doc.satellites) s.elements = path.resolve(path.dirname(DEMO), s.elements);
   if (doc.output) delete doc.output.dir;
   const file = path.join(dir, 'demo-1d.yaml');
