@@ -59,7 +59,7 @@ function groupBy<T>(rows: readonly T[], key: (r: T) => string): Map<string, T[]>
 }
 
 /** Check network ≤ Σ stations (and, for fixed rate, ≥ the best station) over groups of daily-like rows. */
-function checkNetwork<T extends { station: string; link: string }>(
+function checkNetwork<T extends { station: string; link: string } | CsvRecord>(
   groups: Map<string, T[]>, volume: (r: T) => number, tol: number,
 ): { groups: number; strictlyBelowSum: number } {
   let n = 0;

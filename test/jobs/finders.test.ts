@@ -11,15 +11,18 @@
  *     margin;
  *   - rate.csv: usable minutes are non-increasing in bit rate, volume =
  *     rate × usable time, and at the link's own bit rate the usable minutes
- *     agree with the run's daily.csv figure.
+ *     agree with the run's daily.csv figure;
+ *   - `passbudget mask` and `passbudget rate` (built CLI) write the same
+ *     mask.csv, mask.json and rate.csv as the library calls.
  */
+import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { runPipeline } from '../../src/analysis/pipeline.js';
 import type { DailyRow, MaskFinding } from '../../src/analysis/types.js';
 import { MASK_COLUMNS, RATE_COLUMNS, maskScenario, rateScenario } from '../../src/jobs/finders.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
-import { PAIR, num, readCsv, tempDir, type CsvRecord } from './helpers.js';
+import { CLI, PAIR, num, readCsv, runCli, tempDir, type CsvRecord } from './helpers.js';
 
 const BIN_DEG = 0.1; // mask histogram bin (src/analysis/maskHistogram.ts default)
 
@@ -187,5 +190,24 @@ describe('rate finder', () => {
           .toBeLessThanOrEqual((3 * scenario.window.stepS) / 60);
       }
     }
+  });
+});
+
+describe('passbudget mask / rate at the command line', () => {
+  it('write the same mask.csv, mask.json and rate.csv as the library', async () => {
+    if (!existsSync(CLI)) throw new Error(`${CLI} is missing: build with npx tsc -p . (npm test does)`);
+    const cliOut = path.join(tempDir('finders-cli'), 'out');
+    const [m, r] = await Promise.all([
+      runCli(['mask', PAIR, '--fraction', '1', '--out', cliOut, '--quiet']),
+      runCli(['rate', PAIR, '--out', `${cliOut}-rate`, '--quiet']),
+    ]);
+    expect(m.stderr).toBe('');
+    expect(m.code).toBe(0);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    for (const f of ['mask.csv', 'mask.json']) {
+      expect(readFileSync(path.join(cliOut, f), 'utf8'), f).toBe(readFileSync(path.join(outDir, f), 'utf8'));
+    }
+    expect(readFileSync(path.join(`${cliOut}-rate`, 'rate.csv'), 'utf8')).toBe(readFileSync(path.join(outDir, 'rate.csv'), 'utf8'));
   });
 });
