@@ -41,6 +41,30 @@ export interface DailyAccumulatorOptions {
   station?: string;
   /** Defaults to `link.satellite`. */
   satellite?: string;
+  /**
+   * Record the usable runs (contiguous usable intervals) so `exportState` can
+   * hand them to another accumulator: a chunk of a parallel run. Costs two
+   * numbers per usable contact.
+   */
+  exportable?: boolean;
+}
+
+/**
+ * What a chunk's accumulator hands to the run's accumulator (`mergeState`):
+ * the per-day sums of the days it touched and its usable runs, from which the
+ * receiving accumulator works out the longest gaps exactly as `add` would.
+ * Plain typed arrays, so it crosses a worker boundary as is.
+ */
+export interface DailyAccumulatorState {
+  /** UTC day number (days since 1970-01-01) of index 0 of the arrays. */
+  firstDay: number;
+  passes: Float64Array;
+  usablePasses: Float64Array;
+  usableS: Float64Array;
+  fixedBits: Float64Array;
+  adaptiveBits: Float64Array;
+  /** Usable runs in time order: start (first usable step) and end (last step + Δt), flattened (s). */
+  runs: Float64Array;
 }
 
 /** Only the fields of a CaseBudget the aggregate reads. */
@@ -55,6 +79,13 @@ export interface DailyAccumulator {
   /** Close the pass whose steps were just added: counted on the day of `aosS`. */
   endPass(aosS: number, verdict: Verdict): void;
   rows(): DailyRow[];
+  /** The sums and usable runs so far (created with `exportable`; no pass may be open). */
+  exportState(): DailyAccumulatorState;
+  /**
+   * Add a chunk's state. Chunks must come in time order and not overlap; the
+   * sums add, the runs feed the gap tracking as their steps would have.
+   */
+  mergeState(state: DailyAccumulatorState): void;
 }
 
 interface DayBin {
@@ -99,6 +130,24 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
     }
   };
 
+  // Usable runs for exportState (only when exportable).
+  const exportable = options.exportable === true;
+  const runs: number[] = [];
+  let minDay = count;
+  let maxDay = -1;
+  const touch = (d: number) => { if (d < minDay) minDay = d; if (d > maxDay) maxDay = d; };
+  /** The gap bookkeeping of a usable interval starting at `timeS` (the first step of a run, or any usable step). */
+  const usableAt = (timeS: number, d: number, endS2: number) => {
+    if (timeS < lastUsableStartS) {
+      throw new Error(`daily accumulator ${station}/${link.name}: usable step at ${timeS} s is before ${lastUsableStartS} s`);
+    }
+    closeGapDaysBefore(d);
+    const gap = timeS - gapRef(d);
+    if (gap > CONTIGUOUS_EPS_S && gap > bins[d].longestGapS) bins[d].longestGapS = gap;
+    lastUsableStartS = timeS;
+    lastUsableEndS = Math.max(lastUsableEndS, endS2);
+  };
+
   // Current pass: per day touched, fit time of each mode (adaptive links only).
   let pending = new Map<number, Float64Array>();
   let pendingSteps = 0;
@@ -109,14 +158,13 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
       const d = dayIndex(timeS);
       const b = bins[d];
       if (c.usable) {
-        if (timeS < lastUsableStartS) {
-          throw new Error(`daily accumulator ${station}/${link.name}: usable step at ${timeS} s is before ${lastUsableStartS} s`);
+        if (exportable) {
+          const n = runs.length;
+          if (n === 0 || timeS - runs[n - 1] > CONTIGUOUS_EPS_S) runs.push(timeS, timeS + dtS);
+          else if (timeS + dtS > runs[n - 1]) runs[n - 1] = timeS + dtS;
+          touch(d);
         }
-        closeGapDaysBefore(d);
-        const gap = timeS - gapRef(d);
-        if (gap > CONTIGUOUS_EPS_S && gap > b.longestGapS) b.longestGapS = gap;
-        lastUsableStartS = timeS;
-        lastUsableEndS = Math.max(lastUsableEndS, timeS + dtS);
+        usableAt(timeS, d, timeS + dtS);
         b.usableS += dtS;
         if (adaptive) b.adaptiveBits += c.information_rate_bps * dtS;
         else b.fixedBits += fixedRateBps * dtS;
@@ -136,6 +184,10 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
       }
     },
     endPass(aosS, verdict) {
+      if (exportable) {
+        touch(dayIndex(aosS));
+        for (const d of pending.keys()) touch(d);
+      }
       const b = bins[dayIndex(aosS)];
       b.passes++;
       if (verdict === 'usable') b.usablePasses++;
@@ -147,6 +199,36 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
       }
       pending = new Map();
       pendingSteps = 0;
+    },
+    exportState() {
+      if (!exportable) throw new Error(`daily accumulator ${station}/${link.name}: exportState() needs the exportable option`);
+      if (pendingSteps > 0) throw new Error(`daily accumulator ${station}/${link.name}: exportState() with a pass open`);
+      const lo = maxDay < 0 ? 0 : minDay;
+      const n = maxDay < 0 ? 0 : maxDay - minDay + 1;
+      const st: DailyAccumulatorState = {
+        firstDay: firstDay + lo,
+        passes: new Float64Array(n), usablePasses: new Float64Array(n), usableS: new Float64Array(n),
+        fixedBits: new Float64Array(n), adaptiveBits: new Float64Array(n), runs: Float64Array.from(runs),
+      };
+      for (let i = 0; i < n; i++) {
+        const b = bins[lo + i];
+        st.passes[i] = b.passes; st.usablePasses[i] = b.usablePasses; st.usableS[i] = b.usableS;
+        st.fixedBits[i] = b.fixedBits; st.adaptiveBits[i] = b.adaptiveBits;
+      }
+      return st;
+    },
+    mergeState(st) {
+      const off = st.firstDay - firstDay;
+      const n = st.passes.length;
+      if (n > 0 && (off < 0 || off + n > count)) {
+        throw new Error(`daily accumulator ${station}/${link.name}: merged days ${st.firstDay}..${st.firstDay + n - 1} outside the window`);
+      }
+      for (let i = 0; i < n; i++) {
+        const b = bins[off + i];
+        b.passes += st.passes[i]; b.usablePasses += st.usablePasses[i]; b.usableS += st.usableS[i];
+        b.fixedBits += st.fixedBits[i]; b.adaptiveBits += st.adaptiveBits[i];
+      }
+      for (let r = 0; r < st.runs.length; r += 2) usableAt(st.runs[r], dayIndex(st.runs[r]), st.runs[r + 1]);
     },
     rows() {
       if (pendingSteps > 0) {

@@ -38,7 +38,13 @@ export interface MaskHistogram {
   readonly usableS: Float64Array;
   readonly volumeBits: Float64Array;
   add(elevationDeg: number, dtS: number, usable: boolean, rateBps: number): void;
+  /** The bin arrays (shared, not copied): what a chunk of a parallel run hands back. */
+  exportState(): MaskHistogramState;
+  /** Add another histogram's bins (same binDeg), bin by bin. */
+  mergeState(state: MaskHistogramState): void;
 }
+
+export interface MaskHistogramState { binDeg: number; timeS: Float64Array; usableS: Float64Array; volumeBits: Float64Array }
 
 export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHistogram {
   const binDeg = options.binDeg ?? 0.1;
@@ -74,6 +80,17 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
       if (usable) {
         usableS[k] += dtS;
         volumeBits[k] += rateBps * dtS;
+      }
+    },
+    exportState() {
+      return { binDeg, timeS, usableS, volumeBits };
+    },
+    mergeState(st) {
+      if (st.binDeg !== binDeg || st.timeS.length !== bins) throw new Error(`mask histogram: cannot merge ${st.binDeg}° bins into ${binDeg}° bins`);
+      for (let k = 0; k < bins; k++) {
+        timeS[k] += st.timeS[k];
+        usableS[k] += st.usableS[k];
+        volumeBits[k] += st.volumeBits[k];
       }
     },
   };

@@ -13,6 +13,15 @@
  * picks one among those whose step is usable (best margin, or a priority
  * order); only that station's step counts for the network, so the network
  * never counts the same second twice.
+ *
+ * Chunks: the sweep of each satellite is cut into CHUNKS_PER_SATELLITE pieces
+ * at grid times where no station sees it (so no pass and no network contact
+ * crosses a cut), chosen from the passes alone. Each chunk is swept into
+ * fresh accumulators whose state is then merged into the run's, chunk after
+ * chunk. A parallel run (src/jobs/workerRun.ts) sweeps the same chunks on
+ * worker threads and merges them in the same order, so its floating-point
+ * sums, and therefore its output files, are identical to the in-process run
+ * whatever the number of workers.
  */
 import type { LinkEngine } from '../budget/engine.js';
 import { createLinkEngine, createStepBudget } from '../budget/engine.js';
@@ -23,11 +32,13 @@ import { createPropagator, type Propagator } from '../orbit/propagator.js';
 import { findPasses } from '../passes/find.js';
 import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario, ScenarioStation } from '../scenario/types.js';
-import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from './dailyAccumulator.js';
-import { createMaskHistogram, type MaskHistogram } from './maskHistogram.js';
+import {
+  createDailyAccumulator, NETWORK_STATION, type DailyAccumulator, type DailyAccumulatorState,
+} from './dailyAccumulator.js';
+import { createMaskHistogram, type MaskHistogram, type MaskHistogramState } from './maskHistogram.js';
 import { chooseNetworkStation, type NetworkCandidate } from './network.js';
 import { createPassAccumulator, type PassAccumulator } from './passAccumulator.js';
-import { createRateHistogram, type RateHistogram } from './rateHistogram.js';
+import { createRateHistogram, type RateHistogram, type RateHistogramState } from './rateHistogram.js';
 import type { DailyRow, PassLinkSummary } from './types.js';
 import { judgePass } from './verdict.js';
 
@@ -91,12 +102,140 @@ export interface PipelineResult {
   engines: LinkEngine[];
 }
 
+/** Chunks per satellite: fixed (not tied to the worker count) so every run merges the same partial sums. */
+export const CHUNKS_PER_SATELLITE = 24;
+
+// ---------------------------------------------------------------------------
+// Layout: which stations and links a satellite has (cheap, no engines).
+
+export interface StationLayout {
+  /** Index in scenario.stations. */
+  stationIndex: number;
+  /** The scenario entry with the mask floor applied. */
+  entry: ScenarioStation;
+  links: LinkSpec[];
+}
+
+export interface SatelliteLayout {
+  satIndex: number;
+  satellite: string;
+  stations: StationLayout[];
+  /** Link names of this satellite, first-seen order. */
+  linkNames: string[];
+}
+
+function withMaskFloor(entry: ScenarioStation, floorDeg: number | undefined): ScenarioStation {
+  if (floorDeg === undefined) return entry;
+  const m = entry.station.mask;
+  const mask = m.kind === 'constant'
+    ? { kind: 'constant' as const, elevationDeg: Math.max(m.elevationDeg, floorDeg) }
+    : { kind: 'table' as const, points: m.points.map(([a, e]) => [a, Math.max(e, floorDeg)] as const) };
+  return { ...entry, station: { ...entry.station, mask } };
+}
+
+export function satelliteLayout(scenario: ResolvedScenario, satIndex: number, maskFloorDeg?: number): SatelliteLayout {
+  const sat = scenario.satellites[satIndex];
+  const stations: StationLayout[] = [];
+  scenario.stations.forEach((entry0, stationIndex) => {
+    const entry = withMaskFloor(entry0, maskFloorDeg);
+    const links = scenario.links.filter((l) => l.satellite === sat.name && l.station === entry.station.name);
+    if (links.length > 0) stations.push({ stationIndex, entry, links });
+  });
+  const linkNames = [...new Set(stations.flatMap((s) => s.links.map((l) => l.name)))];
+  return { satIndex, satellite: sat.name, stations, linkNames };
+}
+
+// ---------------------------------------------------------------------------
+// Plan: the passes and the chunks (cheap: orbit and geometry only).
+
+/** A pass with its grid interval; `station` indexes SatelliteLayout.stations. */
+export interface PlannedPass {
+  station: number;
+  pass: Pass;
+  passId: string;
+  kFirst: number;
+  kLast: number;
+}
+
+export interface SatellitePlan {
+  /** Passes per layout station, in the order findPasses returned them. */
+  passesByStation: Pass[][];
+  /** All passes in sweep order (AOS, then station name). */
+  items: PlannedPass[];
+  /** Chunk c is items[chunkStarts[c] .. chunkStarts[c + 1]). */
+  chunkStarts: number[];
+  /** Σ pass durations (s), for progress. */
+  totalS: number;
+}
+
+export function planSatellite(scenario: ResolvedScenario, layout: SatelliteLayout, chunks = CHUNKS_PER_SATELLITE): SatellitePlan {
+  const { startS, endS, stepS } = scenario.window;
+  const sat = scenario.satellites[layout.satIndex];
+  const propagator = createPropagator(sat.elements);
+  const items: PlannedPass[] = [];
+  const passesByStation = layout.stations.map((st, si) => {
+    const passes = findPasses({ propagator, station: st.entry.station, startS, endS });
+    for (const p of passes) {
+      const kFirst = Math.ceil((p.aosS - startS) / stepS - 1e-9);
+      const kLast = Math.floor((p.losS - startS) / stepS + 1e-9);
+      items.push({ station: si, pass: p, passId: `${sat.name}/${st.entry.station.name}/${p.index}`, kFirst, kLast });
+    }
+    return passes;
+  });
+  const name = (it: PlannedPass) => layout.stations[it.station].entry.station.name;
+  items.sort((a, b) => a.pass.aosS - b.pass.aosS || name(a).localeCompare(name(b)));
+  const totalS = items.reduce((s, it) => s + it.pass.durationS, 0);
+  return { passesByStation, items, chunkStarts: chunkStarts(items, chunks), totalS };
+}
+
+/**
+ * Cut points: before a pass that has grid steps and starts after every earlier
+ * pass's last grid step (no station in view in between), at the first such
+ * point past each 1/chunks of the grid steps.
+ */
+export function chunkStarts(items: readonly PlannedPass[], chunks: number): number[] {
+  const steps = (it: PlannedPass) => Math.max(0, it.kLast - it.kFirst + 1);
+  const total = items.reduce((s, it) => s + steps(it), 0);
+  const starts = [0];
+  let done = 0;
+  let maxLast = -Infinity;
+  for (let i = 0; i < items.length; i++) {
+    const it = items[i];
+    const n = steps(it);
+    if (i > 0 && n > 0 && it.kFirst > maxLast && done >= (total * starts.length) / chunks) starts.push(i);
+    done += n;
+    if (n > 0 && it.kLast > maxLast) maxLast = it.kLast;
+  }
+  starts.push(items.length);
+  return starts;
+}
+
+// ---------------------------------------------------------------------------
+// Sweep: one chunk into fresh accumulators.
+
+/** What one chunk hands back: plain data and typed arrays (crosses a worker boundary). */
+export interface ChunkPartial {
+  satIndex: number;
+  chunk: number;
+  passLinks: PassLinkSummary[];
+  series: PassSeriesData[];
+  /** Per layout station, link and case; then per link name and case for the network. */
+  daily: DailyAccumulatorState[];
+  /** Per layout station, link and case. */
+  mask: MaskHistogramState[];
+  rate: (RateHistogramState | null)[];
+  stationSteps: number;
+  gridTimes: number;
+  linkSteps: number;
+}
+
 interface LinkRun {
   link: LinkSpec;
   engine: LinkEngine;
   step: StepBudget;
   daily: DailyAccumulator[]; // per case
-  hists: StationLinkHistograms[]; // per case
+  mask: MaskHistogram[]; // per case
+  rate: (RateHistogram | null)[]; // per case
   pass: PassAccumulator | null;
   series: PassSeriesData | null;
   seriesEvery: number;
@@ -104,18 +243,27 @@ interface LinkRun {
 }
 
 interface StationRun {
-  entry: ScenarioStation;
+  name: string;
+  priority: number;
   geometry: StationGeometry;
   sample: GeometrySample;
   links: LinkRun[];
+  /** Per SatelliteLayout.linkNames index: this station's run of that link, or null. */
+  byName: (LinkRun | null)[];
 }
 
-interface ActivePass {
-  pass: Pass;
-  passId: string;
-  station: StationRun;
-  kFirst: number;
-  kLast: number;
+export interface SweepOptions {
+  onStep?: (e: StepEvent) => void | Promise<void>;
+  collectSeries?: boolean;
+  seriesMaxPoints?: number;
+  /** Called after each pass with its duration (s). */
+  onPassDone?: (durationS: number) => void;
+}
+
+export interface Sweeper {
+  layout: SatelliteLayout;
+  engines: LinkEngine[];
+  sweepChunk(items: readonly PlannedPass[], chunk: number, options: SweepOptions): Promise<ChunkPartial>;
 }
 
 /** Memoise the last TEME state so stations sharing a grid time propagate once. */
@@ -139,87 +287,59 @@ function sharedPropagator(inner: Propagator): Propagator {
   };
 }
 
-function withMaskFloor(entry: ScenarioStation, floorDeg: number | undefined): ScenarioStation {
-  if (floorDeg === undefined) return entry;
-  const m = entry.station.mask;
-  const mask = m.kind === 'constant'
-    ? { kind: 'constant' as const, elevationDeg: Math.max(m.elevationDeg, floorDeg) }
-    : { kind: 'table' as const, points: m.points.map(([a, e]) => [a, Math.max(e, floorDeg)] as const) };
-  return { ...entry, station: { ...entry.station, mask } };
-}
-
-export async function runPipeline(options: PipelineOptions): Promise<PipelineResult> {
-  const { scenario } = options;
+/** Engines, geometry and reusable records for one satellite (the expensive part: elevation tables). */
+export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayout): Sweeper {
   const { startS, endS, stepS } = scenario.window;
   const cases: WeatherCase[] = scenario.weatherCases;
-  const seriesMax = options.seriesMaxPoints ?? 120;
-  const result: PipelineResult = {
-    passes: [], passLinks: [], daily: [], histograms: [], series: [], stationSteps: 0, gridTimes: 0, linkSteps: 0, engines: [],
-  };
-  const networkDaily: DailyAccumulator[] = [];
+  const nCases = cases.length;
+  const sat = scenario.satellites[layout.satIndex];
+  const propagator = sharedPropagator(createPropagator(sat.elements));
+  const engines: LinkEngine[] = [];
+  const stations: StationRun[] = layout.stations.map((st) => {
+    const links: LinkRun[] = st.links.map((link) => {
+      const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases });
+      engines.push(engine);
+      return {
+        link, engine, step: createStepBudget(cases), daily: [], mask: [], rate: [],
+        pass: null, series: null, seriesEvery: 1, seriesCount: 0,
+      };
+    });
+    return {
+      name: st.entry.station.name, priority: st.entry.priority,
+      geometry: createStationGeometry(st.entry.station), sample: createGeometrySample(), links,
+      byName: layout.linkNames.map((n) => links.find((l) => l.link.name === n) ?? null),
+    };
+  });
+  const nLinks = layout.linkNames.length;
+  const protoLink = layout.linkNames.map((n) => stations.flatMap((s) => s.links).find((l) => l.link.name === n)!.link);
+  // Pooled network candidates (one per station), refilled at every grid time.
+  const pool: NetworkCandidate[] = stations.map(() => ({ station: '', marginDB: NaN, usable: false, rateBps: 0, priority: 0 }));
+  const candidates: NetworkCandidate[] = [];
+  const candidateRuns: LinkRun[] = [];
+  const event: StepEvent = { passId: '', satellite: sat.name, station: '', link: protoLink[0], timeS: NaN, step: stations[0]?.links[0]?.step };
 
-  for (const sat of scenario.satellites) {
-    const propagator = sharedPropagator(createPropagator(sat.elements));
-    const stations: StationRun[] = [];
-    for (const entry0 of scenario.stations) {
-      const entry = withMaskFloor(entry0, options.maskFloorDeg);
-      const links = scenario.links.filter((l) => l.satellite === sat.name && l.station === entry.station.name);
-      if (links.length === 0) continue;
-      const runs: LinkRun[] = links.map((link) => {
-        const engine = createLinkEngine({ link, climate: entry.climate, weatherCases: cases });
-        result.engines.push(engine);
-        const hists = cases.map((c) => {
-          const h: StationLinkHistograms = {
-            station: entry.station.name, link, weather: c.name,
-            mask: createMaskHistogram({ station: entry.station.name, link: link.name, weather: c.name }),
-            rate: link.modcod.kind === 'fixed'
-              ? createRateHistogram({ station: entry.station.name, link: link.name, weather: c.name })
-              : null,
-          };
-          result.histograms.push(h);
-          return h;
-        });
-        return {
-          link, engine, step: createStepBudget(cases),
-          daily: cases.map((c) => createDailyAccumulator({ startS, endS, link, weather: c.name })),
-          hists, pass: null, series: null, seriesEvery: 1, seriesCount: 0,
-        };
-      });
-      stations.push({ entry, geometry: createStationGeometry(entry.station), sample: createGeometrySample(), links: runs });
-    }
-    if (stations.length === 0) continue;
-
-    // Network accumulators, one per link name of this satellite and weather case.
-    const linkNames = [...new Set(stations.flatMap((s) => s.links.map((l) => l.link.name)))];
-    const netDaily = new Map<string, DailyAccumulator[]>();
-    for (const name of linkNames) {
-      const proto = stations.flatMap((s) => s.links).find((l) => l.link.name === name)!.link;
-      const accs = cases.map((c) => createDailyAccumulator({
-        startS, endS, link: proto, weather: c.name, station: NETWORK_STATION, satellite: sat.name,
-      }));
-      netDaily.set(name, accs);
-      networkDaily.push(...accs);
-    }
-
-    // Passes at every station, then the grid intervals they cover.
-    const items: ActivePass[] = [];
+  async function sweepChunk(items: readonly PlannedPass[], chunk: number, o: SweepOptions): Promise<ChunkPartial> {
+    const seriesMax = o.seriesMaxPoints ?? 120;
+    const part: ChunkPartial = {
+      satIndex: layout.satIndex, chunk, passLinks: [], series: [], daily: [], mask: [], rate: [],
+      stationSteps: 0, gridTimes: 0, linkSteps: 0,
+    };
+    // Fresh accumulators for this chunk.
     for (const st of stations) {
-      const passes = findPasses({ propagator, station: st.geometry.station, startS, endS });
-      for (const p of passes) {
-        result.passes.push(p);
-        const kFirst = Math.ceil((p.aosS - startS) / stepS - 1e-9);
-        const kLast = Math.floor((p.losS - startS) / stepS + 1e-9);
-        items.push({ pass: p, passId: `${sat.name}/${st.entry.station.name}/${p.index}`, station: st, kFirst, kLast });
+      for (const lr of st.links) {
+        lr.daily = cases.map((c) => createDailyAccumulator({ startS, endS, link: lr.link, weather: c.name, exportable: true }));
+        lr.mask = cases.map((c) => createMaskHistogram({ station: st.name, link: lr.link.name, weather: c.name }));
+        lr.rate = cases.map((c) => (lr.link.modcod.kind === 'fixed' ? createRateHistogram({ station: st.name, link: lr.link.name, weather: c.name }) : null));
       }
     }
-    items.sort((a, b) => a.pass.aosS - b.pass.aosS || a.station.entry.station.name.localeCompare(b.station.entry.station.name));
-    const totalS = items.reduce((s, it) => s + it.pass.durationS, 0);
-    let doneS = 0;
+    const netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
+      startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: sat.name, exportable: true,
+    })));
 
-    const beginPass = (it: ActivePass) => {
+    const beginPass = (it: PlannedPass) => {
       const p = it.pass;
       const expected = Math.max(1, it.kLast - it.kFirst + 1);
-      for (const lr of it.station.links) {
+      for (const lr of stations[it.station].links) {
         lr.engine.beginPass();
         lr.pass = createPassAccumulator({
           link: lr.link,
@@ -229,7 +349,7 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
           },
           weatherCases: cases,
         });
-        if (options.collectSeries) {
+        if (o.collectSeries) {
           lr.seriesEvery = Math.max(1, Math.ceil(expected / seriesMax));
           lr.seriesCount = 0;
           lr.series = {
@@ -239,36 +359,33 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
         }
       }
     };
-    const endPass = (it: ActivePass) => {
-      for (const lr of it.station.links) {
+    const endPass = (it: PlannedPass) => {
+      for (const lr of stations[it.station].links) {
         const summary = lr.pass!.finish();
-        result.passLinks.push(summary);
+        part.passLinks.push(summary);
         summary.cases.forEach((c, ci) => lr.daily[ci].endPass(it.pass.aosS, c.verdict));
-        if (lr.series) result.series.push(lr.series);
+        if (lr.series) part.series.push(lr.series);
         lr.pass = null;
         lr.series = null;
       }
-      doneS += it.pass.durationS;
-      options.onProgress?.(doneS, totalS);
+      o.onPassDone?.(it.pass.durationS);
     };
 
     // Network contact = a maximal run of grid times with at least one station in view.
-    const netContact = linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
+    const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
     const closeNetContact = () => {
-      linkNames.forEach((name, li) => {
-        const accs = netDaily.get(name)!;
-        cases.forEach((_, ci) => {
+      for (let li = 0; li < nLinks; li++) {
+        for (let ci = 0; ci < nCases; ci++) {
           const nc = netContact[li][ci];
-          if (Number.isNaN(nc.startS)) return;
-          accs[ci].endPass(nc.startS, judgePass(nc.usableS, nc.aboveS, nc.any).verdict);
+          if (Number.isNaN(nc.startS)) continue;
+          netDaily[li][ci].endPass(nc.startS, judgePass(nc.usableS, nc.aboveS, nc.any).verdict);
           nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0;
-        });
-      });
+        }
+      }
     };
 
-    const candidates: NetworkCandidate[] = [];
-    const candidateRuns: LinkRun[] = [];
-    let active: ActivePass[] = [];
+    let active: PlannedPass[] = [];
+    let still: PlannedPass[] = [];
     let i = 0;
     let k = items.length ? items[0].kFirst : 0;
     while (i < items.length || active.length > 0) {
@@ -289,49 +406,53 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
       }
       if (active.length === 0) continue;
       const t = startS + k * stepS;
-      result.gridTimes++;
-      for (const it of active) {
-        const st = it.station;
+      part.gridTimes++;
+      for (let a = 0; a < active.length; a++) {
+        const it = active[a];
+        const st = stations[it.station];
         st.geometry.sample(propagator, t, st.sample);
-        result.stationSteps++;
-        for (const lr of st.links) {
+        part.stationSteps++;
+        for (let l = 0; l < st.links.length; l++) {
+          const lr = st.links[l];
           const step = lr.engine.evaluate(st.sample, lr.step);
-          result.linkSteps++;
+          part.linkSteps++;
           const el = step.elevation_deg;
           lr.pass!.add(t, stepS, el, step);
-          for (let ci = 0; ci < cases.length; ci++) {
+          for (let ci = 0; ci < nCases; ci++) {
             const c = step.cases[ci];
             lr.daily[ci].add(t, stepS, c);
-            const h = lr.hists[ci];
-            h.mask.add(el, stepS, c.usable, c.information_rate_bps);
-            if (h.rate) h.rate.add(c.c_over_n0_dbhz, stepS);
+            lr.mask[ci].add(el, stepS, c.usable, c.information_rate_bps);
+            const rh = lr.rate[ci];
+            if (rh) rh.add(c.c_over_n0_dbhz, stepS);
           }
           if (lr.series && lr.seriesCount++ % lr.seriesEvery === 0) {
             const s = lr.series;
             s.timeS.push(t); s.azimuthDeg.push(step.azimuth_deg); s.elevationDeg.push(el);
-            for (let ci = 0; ci < cases.length; ci++) {
+            for (let ci = 0; ci < nCases; ci++) {
               s.cases[ci].marginDB.push(step.cases[ci].margin_db);
               s.cases[ci].ebN0DB.push(step.cases[ci].eb_over_n0_db);
             }
           }
-          if (options.onStep) {
-            const wait = options.onStep({ passId: it.passId, satellite: sat.name, station: st.entry.station.name, link: lr.link, timeS: t, step });
+          if (o.onStep) {
+            event.passId = it.passId; event.station = st.name; event.link = lr.link; event.timeS = t; event.step = step;
+            const wait = o.onStep(event);
             if (wait) await wait;
           }
         }
       }
       // Network: per link name and case, one station at most.
-      for (let li = 0; li < linkNames.length; li++) {
-        const name = linkNames[li];
-        const accs = netDaily.get(name)!;
-        for (let ci = 0; ci < cases.length; ci++) {
+      for (let li = 0; li < nLinks; li++) {
+        for (let ci = 0; ci < nCases; ci++) {
           candidates.length = 0;
           candidateRuns.length = 0;
-          for (const it of active) {
-            const lr = it.station.links.find((l) => l.link.name === name);
+          for (let a = 0; a < active.length; a++) {
+            const st = stations[active[a].station];
+            const lr = st.byName[li];
             if (!lr) continue;
             const c = lr.step.cases[ci];
-            candidates.push({ station: it.station.entry.station.name, marginDB: c.margin_db, usable: c.usable, rateBps: c.information_rate_bps, priority: it.station.entry.priority });
+            const cand = pool[candidates.length];
+            cand.station = st.name; cand.marginDB = c.margin_db; cand.usable = c.usable; cand.rateBps = c.information_rate_bps; cand.priority = st.priority;
+            candidates.push(cand);
             candidateRuns.push(lr);
           }
           if (candidates.length === 0) continue;
@@ -341,29 +462,144 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
           const chosen = chooseNetworkStation(candidates, scenario.network);
           if (chosen >= 0) {
             const lr = candidateRuns[chosen];
-            accs[ci].add(t, stepS, lr.step.cases[ci], lr.link);
+            netDaily[li][ci].add(t, stepS, lr.step.cases[ci], lr.link);
             nc.usableS += stepS;
             nc.any = true;
           }
         }
       }
       // Retire passes whose last grid point this was.
-      const still: ActivePass[] = [];
+      still.length = 0;
       for (const it of active) {
         if (it.kLast <= k) endPass(it);
         else still.push(it);
       }
-      active = still;
+      [active, still] = [still, active];
       k++;
     }
     closeNetContact();
-    for (const st of stations) for (const lr of st.links) for (const d of lr.daily) result.daily.push(...d.rows());
+
+    for (const st of stations) {
+      for (const lr of st.links) {
+        for (let ci = 0; ci < nCases; ci++) {
+          part.daily.push(lr.daily[ci].exportState());
+          part.mask.push(lr.mask[ci].exportState());
+          const rh = lr.rate[ci];
+          part.rate.push(rh ? rh.exportState() : null);
+        }
+        lr.daily = []; lr.mask = []; lr.rate = [];
+      }
+    }
+    for (const accs of netDaily) for (const a of accs) part.daily.push(a.exportState());
+    return part;
   }
-  for (const d of networkDaily) result.daily.push(...d.rows());
+
+  return { layout, engines, sweepChunk };
+}
+
+// ---------------------------------------------------------------------------
+// Merge: the run's accumulators, fed chunk by chunk in order.
+
+export interface SatelliteMerge {
+  /** Merge chunk `part` (chunks must arrive in order 0, 1, 2, …). */
+  add(part: ChunkPartial): void;
+  /** Daily rows of the stations (and, separately, of the network). */
+  finish(): { stationDaily: DailyRow[]; networkDaily: DailyRow[] };
+}
+
+/**
+ * The run-level accumulators of one satellite. Histograms are appended to
+ * `result.histograms` (station, link, case order) when created; passLinks,
+ * series and the step counters go into `result` as chunks merge.
+ */
+export function createSatelliteMerge(scenario: ResolvedScenario, layout: SatelliteLayout, result: PipelineResult): SatelliteMerge {
+  const { startS, endS } = scenario.window;
+  const cases = scenario.weatherCases;
+  const daily: DailyAccumulator[] = [];
+  const hists: StationLinkHistograms[] = [];
+  for (const st of layout.stations) {
+    const name = st.entry.station.name;
+    for (const link of st.links) {
+      for (const c of cases) {
+        daily.push(createDailyAccumulator({ startS, endS, link, weather: c.name }));
+        const h: StationLinkHistograms = {
+          station: name, link, weather: c.name,
+          mask: createMaskHistogram({ station: name, link: link.name, weather: c.name }),
+          rate: link.modcod.kind === 'fixed' ? createRateHistogram({ station: name, link: link.name, weather: c.name }) : null,
+        };
+        hists.push(h);
+        result.histograms.push(h);
+      }
+    }
+  }
+  const nStationDaily = daily.length;
+  for (const name of layout.linkNames) {
+    const proto = layout.stations.flatMap((s) => s.links).find((l) => l.name === name)!;
+    for (const c of cases) {
+      daily.push(createDailyAccumulator({ startS, endS, link: proto, weather: c.name, station: NETWORK_STATION, satellite: layout.satellite }));
+    }
+  }
+  let next = 0;
+  return {
+    add(part) {
+      if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
+      next++;
+      for (const p of part.passLinks) result.passLinks.push(p);
+      for (const s of part.series) result.series.push(s);
+      part.daily.forEach((d, i) => daily[i].mergeState(d));
+      part.mask.forEach((m, i) => hists[i].mask.mergeState(m));
+      part.rate.forEach((r, i) => { if (r) hists[i].rate!.mergeState(r); });
+      result.stationSteps += part.stationSteps;
+      result.gridTimes += part.gridTimes;
+      result.linkSteps += part.linkSteps;
+    },
+    finish() {
+      const rows = daily.map((d) => d.rows());
+      return { stationDaily: rows.slice(0, nStationDaily).flat(), networkDaily: rows.slice(nStationDaily).flat() };
+    },
+  };
+}
+
+export function emptyPipelineResult(): PipelineResult {
+  return { passes: [], passLinks: [], daily: [], histograms: [], series: [], stationSteps: 0, gridTimes: 0, linkSteps: 0, engines: [] };
+}
+
+/** The final ordering of the run's tables (the same for in-process and parallel runs). */
+export function finishPipelineResult(result: PipelineResult, networkDaily: DailyRow[]): PipelineResult {
+  for (const d of networkDaily) result.daily.push(d);
   result.daily.sort((a, b) =>
     a.dayUtc.localeCompare(b.dayUtc) || a.satellite.localeCompare(b.satellite) || a.link.localeCompare(b.link)
     || a.weather.localeCompare(b.weather) || (a.station === NETWORK_STATION ? 1 : 0) - (b.station === NETWORK_STATION ? 1 : 0)
     || a.station.localeCompare(b.station));
   result.passLinks.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station) || a.link.localeCompare(b.link));
   return result;
+}
+
+export async function runPipeline(options: PipelineOptions): Promise<PipelineResult> {
+  const { scenario } = options;
+  const result = emptyPipelineResult();
+  const networkDaily: DailyRow[] = [];
+  for (let satIndex = 0; satIndex < scenario.satellites.length; satIndex++) {
+    const layout = satelliteLayout(scenario, satIndex, options.maskFloorDeg);
+    if (layout.stations.length === 0) continue;
+    const sweeper = createSweeper(scenario, layout);
+    for (const e of sweeper.engines) result.engines.push(e);
+    const merge = createSatelliteMerge(scenario, layout, result);
+    const plan = planSatellite(scenario, layout);
+    for (const ps of plan.passesByStation) for (const p of ps) result.passes.push(p);
+    let doneS = 0;
+    const sweep: SweepOptions = {
+      onStep: options.onStep,
+      collectSeries: options.collectSeries,
+      seriesMaxPoints: options.seriesMaxPoints,
+      onPassDone: (d) => { doneS += d; options.onProgress?.(doneS, plan.totalS); },
+    };
+    for (let c = 0; c + 1 < plan.chunkStarts.length; c++) {
+      merge.add(await sweeper.sweepChunk(plan.items.slice(plan.chunkStarts[c], plan.chunkStarts[c + 1]), c, sweep));
+    }
+    const rows = merge.finish();
+    for (const d of rows.stationDaily) result.daily.push(d);
+    for (const d of rows.networkDaily) networkDaily.push(d);
+  }
+  return finishPipelineResult(result, networkDaily);
 }

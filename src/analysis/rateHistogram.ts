@@ -36,7 +36,13 @@ export interface RateHistogram {
   /** Time with C/N0 below minDBHz or NaN (s): never closes. */
   readonly underflowS: number;
   add(cOverN0DBHz: number, dtS: number): void;
+  /** The bins (shared, not copied) and the underflow: what a chunk of a parallel run hands back. */
+  exportState(): RateHistogramState;
+  /** Add another histogram's bins (same binning), bin by bin. */
+  mergeState(state: RateHistogramState): void;
 }
+
+export interface RateHistogramState { binDB: number; minDBHz: number; timeS: Float64Array; underflowS: number }
 
 export function createRateHistogram(options: RateHistogramOptions = {}): RateHistogram {
   const binDB = options.binDB ?? 0.01;
@@ -73,6 +79,14 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
       if (k + 1 < bins && edgeDBHz(k + 1) <= cOverN0DBHz) k++;
       if (k > 0 && edgeDBHz(k) > cOverN0DBHz) k--;
       timeS[k] += dtS;
+    },
+    exportState() {
+      return { binDB, minDBHz, timeS, underflowS };
+    },
+    mergeState(st) {
+      if (st.binDB !== binDB || st.minDBHz !== minDBHz || st.timeS.length !== bins) throw new Error('rate histogram: cannot merge a histogram with other bins');
+      for (let k = 0; k < bins; k++) timeS[k] += st.timeS[k];
+      underflowS += st.underflowS;
     },
   };
 }
