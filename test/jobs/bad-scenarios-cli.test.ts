@@ -11,9 +11,11 @@
  */
 import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeBadCases, type WrittenBadCase } from '../scenario/bad-cases.js';
-import { CLI, mapLimit, runCli, tempDir, type CliResult } from './helpers.js';
+import { CLI, mapLimit, runCli, removeTempDirs, tempDir, type CliResult } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const tmp = tempDir('bad-cli');
 const cases: WrittenBadCase[] = writeBadCases(path.join(tmp, 'cases'));

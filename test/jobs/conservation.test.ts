@@ -13,12 +13,14 @@
  */
 import path from 'node:path';
 import { readFileSync } from 'node:fs';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runPipeline } from '../../src/analysis/pipeline.js';
 import type { DailyRow, RunSummary } from '../../src/analysis/types.js';
 import { runScenario } from '../../src/jobs/run.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
-import { PAIR, num, readCsv, tempDir, type CsvRecord } from './helpers.js';
+import { PAIR, num, readCsv, removeTempDirs, tempDir, type CsvRecord } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const NET = '(network)';
 const BYTES_PER_MB = 1e6;

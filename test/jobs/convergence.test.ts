@@ -8,11 +8,13 @@
  * Checked per link, per station and for the network, on the e2e pair scenario
  * and on a one-day cut of the demo scenario.
  */
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runPipeline } from '../../src/analysis/pipeline.js';
 import type { DailyRow } from '../../src/analysis/types.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
-import { PAIR, tempDir, writeDemoCopy } from './helpers.js';
+import { PAIR, removeTempDirs, tempDir, writeDemoCopy } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const LIMIT = 0.005;
 

@@ -10,11 +10,13 @@ import { createHash } from 'node:crypto';
 import { createRequire } from 'node:module';
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunSummary } from '../../src/analysis/types.js';
 import { CAUTIONS, MODELS_USED } from '../../src/jobs/outputs.js';
 import { loadScenario } from '../../src/scenario/index.js';
-import { CLI, DEMO, ROOT, num, readCsv, runCli, tempDir, writeDemoCopy, type CsvRecord } from './helpers.js';
+import { CLI, DEMO, ROOT, num, readCsv, runCli, removeTempDirs, tempDir, writeDemoCopy, type CsvRecord } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const C_KM_S = 299_792.458;
 const tmp = tempDir('demo-run');

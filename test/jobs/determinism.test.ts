@@ -7,8 +7,10 @@
  */
 import { existsSync } from 'node:fs';
 import path from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
-import { CLI, PAIR, folderBytes, runCli, tempDir, type CliResult } from './helpers.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CLI, PAIR, folderBytes, runCli, removeTempDirs, tempDir, type CliResult } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const tmp = tempDir('determinism');
 const outA = path.join(tmp, 'a', 'out');

@@ -17,12 +17,14 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runPipeline } from '../../src/analysis/pipeline.js';
 import type { DailyRow, MaskFinding } from '../../src/analysis/types.js';
 import { MASK_COLUMNS, RATE_COLUMNS, maskScenario, rateScenario } from '../../src/jobs/finders.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
-import { CLI, PAIR, num, readCsv, runCli, tempDir, type CsvRecord } from './helpers.js';
+import { CLI, PAIR, num, readCsv, runCli, removeTempDirs, tempDir, type CsvRecord } from './helpers.js';
+
+afterAll(removeTempDirs);
 
 const BIN_DEG = 0.1; // mask histogram bin (src/analysis/maskHistogram.ts default)
 

@@ -5,7 +5,7 @@
  * scenarios, a one-day copy of the demo scenario, and a CLI runner.
  */
 import { spawn } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { parse, stringify } from 'yaml';
@@ -16,8 +16,17 @@ export const E2E_DIR = path.resolve(ROOT, 'fixtures/scenarios/e2e');
 export const PAIR = path.join(E2E_DIR, 'pair.yaml');
 export const DEMO = path.resolve(ROOT, 'fixtures/demo/scenario.yaml');
 
+const made: string[] = [];
+
+/** A fresh folder under the OS temp dir; removed by `removeTempDirs()` (call it in afterAll). */
 export function tempDir(label: string): string {
-  return mkdtempSync(path.join(tmpdir(), `passbudget-${label}-`));
+  const d = mkdtempSync(path.join(tmpdir(), `passbudget-${label}-`));
+  made.push(d);
+  return d;
+}
+
+export function removeTempDirs(): void {
+  for (const d of made.splice(0)) rmSync(d, { recursive: true, force: true });
 }
 
 export type CsvRecord = Record<string, string>;
