@@ -1,8 +1,13 @@
 /**
  * Network arbitration: at each step, which one station of the network carries
  * the satellite, so network volume counts every step once.
- *   - `best-margin` (default): the usable candidate with the largest margin;
- *     ties go to the higher priority (lower number), then to the first listed.
+ *   - `best-margin` (default): the usable candidate that delivers the highest
+ *     information rate, and among equal rates the largest margin; ties go to
+ *     the higher priority (lower number), then to the first listed. Rate comes
+ *     first because an adaptive link's margin is measured against each
+ *     station's own chosen mode, so margins of two stations on different modes
+ *     do not compare; for a fixed-rate link every usable rate is the same and
+ *     the margin decides.
  *   - `priority`: the first usable candidate in `policy.order`; stations not in
  *     the order come after it, ranked by their `priority` number.
  */
@@ -42,7 +47,10 @@ export function chooseNetworkStation(
   candidates.forEach((c, i) => {
     if (!c.usable || Number.isNaN(c.marginDB)) return;
     const b = candidates[best];
-    if (best < 0 || c.marginDB > b.marginDB || (c.marginDB === b.marginDB && c.priority < b.priority)) best = i;
+    if (
+      best < 0 || c.rateBps > b.rateBps
+      || (c.rateBps === b.rateBps && (c.marginDB > b.marginDB || (c.marginDB === b.marginDB && c.priority < b.priority)))
+    ) best = i;
   });
   return best;
 }

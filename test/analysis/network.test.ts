@@ -22,6 +22,14 @@ describe('chooseNetworkStation', () => {
     expect(chooseNetworkStation([c('A', NaN, true, 1), c('B', -2, true, 2)])).toBe(1);
   });
 
+  it('adaptive links: the higher information rate wins over a larger margin on a slower mode', () => {
+    // Station A closes QPSK 1/4 with 4 dB to spare; B closes 32APSK 5/6 with 0.5 dB: B carries 8x the bits.
+    const a: NetworkCandidate = { station: 'A', marginDB: 4, usable: true, rateBps: 2.45e6, priority: 1 };
+    const b: NetworkCandidate = { station: 'B', marginDB: 0.5, usable: true, rateBps: 20.6e6, priority: 2 };
+    expect(chooseNetworkStation([a, b])).toBe(1);
+    expect(chooseNetworkStation([b, a])).toBe(0);
+  });
+
   it('fixed priority order: first usable in the order, others after by priority number', () => {
     const order = { kind: 'priority' as const, order: ['Vaddle', 'Lintel Point', 'Gorsemoor'] };
     expect(chooseNetworkStation(set, order)).toBe(3);
