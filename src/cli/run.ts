@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { loadScenario } from '../scenario/index.js';
 import { formatRunSummary, runScenario } from '../jobs/run.js';
+import { checkWorkers } from '../jobs/workerRun.js';
 
 export function register(program: Command): void {
   program
@@ -10,9 +11,11 @@ export function register(program: Command): void {
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--no-steps', 'do not write steps.csv')
     .option('--quiet', 'no progress bar and no summary table')
-    .action(async (file: string, o: { out?: string; steps?: boolean; quiet?: boolean }) => {
+    .option('--workers <n>', 'worker threads for the sweep (default 1; outputs are identical for any count)')
+    .action(async (file: string, o: { out?: string; steps?: boolean; quiet?: boolean; workers?: string }) => {
+      const workers = o.workers === undefined ? 1 : checkWorkers(o.workers);
       const scenario = loadScenario(file, { outDir: o.out });
-      const result = await runScenario(scenario, { outDir: o.out, quiet: o.quiet, steps: o.steps === false ? false : undefined });
+      const result = await runScenario(scenario, { outDir: o.out, quiet: o.quiet, steps: o.steps === false ? false : undefined, workers });
       if (!o.quiet) process.stdout.write(`${formatRunSummary(result)}\n`);
     });
 }
