@@ -22,9 +22,13 @@ export class CsvStreamWriter {
     this.finished = once(out, 'finish');
   }
 
-  /** Write one row (cells in column order); awaits when the stream asks for backpressure. */
-  async write(row: CsvCell[]): Promise<void> {
-    if (!this.csv.write(row)) await once(this.csv, 'drain');
+  /**
+   * Write one row (cells in column order); awaits when the stream asks for
+   * backpressure. The row is copied: the stringifier holds it until written,
+   * so a caller may reuse its array.
+   */
+  async write(row: readonly CsvCell[]): Promise<void> {
+    if (!this.csv.write(row.slice())) await once(this.csv, 'drain');
   }
 
   async close(): Promise<void> {
