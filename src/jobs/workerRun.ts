@@ -79,8 +79,8 @@ function lazyEngines(result: PipelineResult, scenario: ResolvedScenario, maskFlo
 export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<PipelineResult> {
   const { scenario } = o;
   const workers = o.workers ?? 1;
-  const writer = o.stepsOut ? new ChunkedTextWriter(o.stepsOut) : null;
-  const fmt = writer ? createStepsCsvFormatter(scenario.weatherCases) : null;
+  const fmt = o.stepsOut ? createStepsCsvFormatter(scenario.weatherCases) : null;
+  const writer = o.stepsOut && fmt ? new ChunkedTextWriter(o.stepsOut, () => fmt.ascii) : null;
   if (writer && fmt) await writer.write(fmt.header);
 
   if (workers <= 1) {

@@ -37,6 +37,18 @@ const POW10 = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
 /** FRAC[d][r] = "." + r with d digits. */
 const FRAC: string[][] = POW10.map((p, d) => Array.from({ length: d <= 3 ? p : 0 }, (_, r) => (d === 0 ? '' : `.${String(r).padStart(d, '0')}`)));
 
+const INT = Array.from({ length: 1000 }, (_, i) => String(i));
+const PAD3_INT = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
+/** Decimal digits of an integer 0 ≤ n < 1e9 from two lookups at most (no number-to-string conversion). */
+function intText(n: number): string {
+  if (n < 1000) return INT[n];
+  const lo = n % 1000;
+  const hi = (n - lo) / 1000;
+  if (hi < 1000) return INT[hi] + PAD3_INT[lo];
+  const mid = hi % 1000;
+  return INT[(hi - mid) / 1000] + PAD3_INT[mid] + PAD3_INT[lo];
+}
+
 /** `fmt(value, decimals)` (toFixed; '' for non-finite; no "-0"), fast for decimals 0–3. */
 export function fixedDecimal(value: number, decimals: number): string {
   if (decimals <= 3 && value === value && value !== Infinity && value !== -Infinity) {
@@ -49,7 +61,7 @@ export function fixedDecimal(value: number, decimals: number): string {
         const n = fr < 0.5 ? fl : fl + 1;
         const p = POW10[decimals];
         const r = n % p;
-        const s = `${(n - r) / p}${FRAC[decimals][r]}`;
+        const s = intText((n - r) / p) + FRAC[decimals][r];
         return neg && n !== 0 ? `-${s}` : s;
       }
     }
@@ -113,52 +125,94 @@ export interface StepsCsvFormatter {
   header: string;
   /** One row (with its newline). */
   row(e: StepEvent): string;
+  /** False once a text cell held a non-ASCII character (then the bytes must be UTF-8 encoded). */
+  readonly ascii: boolean;
 }
+
+type RowFn = (e: StepEvent, cell: (v: unknown, d: number, t: Map<string, string>) => string, q: (s: string) => string,
+  iso: (t: number) => string, text: Map<string, string>) => string;
+
+const IDENT = /^[a-z_][a-z0-9_]*$/;
+/**
+ * The row function, generated once from the column lists so each cell is a
+ * plain property read (a loop over field names costs a keyed lookup per cell,
+ * about a third of the row time). Names are checked to be identifiers.
+ */
+function compileRow(nCases: number): RowFn {
+  for (const f of [...STEP_FIELDS, ...CASE_FIELDS]) if (!IDENT.test(f)) throw new Error(`steps.csv: column ${f} is not an identifier`);
+  const lines = ['const s = e.step; const cs = s.cases;',
+    "let out = q(e.passId) + ',' + iso(e.timeS) + ',' + q(e.satellite) + ',' + q(e.station) + ',' + q(e.link.name);"];
+  lines.push(`out += ${STEP_FIELDS.map((f, i) => `',' + cell(s.${f}, ${STEP_DEC[i]}, text)`).join(' + ')};`);
+  for (let j = 0; j < nCases; j++) {
+    lines.push(`{ const c = cs[${j}]; out += ${CASE_FIELDS.map((f, i) => `',' + cell(c.${f}, ${CASE_DEC[i]}, text)`).join(' + ')}; }`);
+  }
+  lines.push("return out + '\\n';");
+  // eslint-disable-next-line @typescript-eslint/no-implied-eval
+  return new Function('e', 'cell', 'q', 'iso', 'text', lines.join('\n')) as RowFn;
+}
+
+const NON_ASCII = /[^\x00-\x7f]/;
 
 /** steps.csv header and rows for these weather cases (columns of jobs/outputs.ts stepColumns). */
 export function createStepsCsvFormatter(cases: readonly WeatherCase[]): StepsCsvFormatter {
   const header = `${stepColumns(cases).map(csvField).join(',')}\n`;
   const text = new Map<string, string>();
+  let ascii = !NON_ASCII.test(header);
   const q = (s: string) => {
     let v = text.get(s);
-    if (v === undefined) { v = csvField(s); text.set(s, v); }
+    if (v === undefined) { v = csvField(s); text.set(s, v); if (NON_ASCII.test(s)) ascii = false; }
     return v;
   };
+  const cellAscii = (v: unknown, d: number, t: Map<string, string>) => (typeof v === 'string' ? q(v) : cell(v, d, t));
+  const fn = compileRow(cases.length);
   return {
     header,
     row(e) {
-      const s: StepBudget = e.step;
-      let out = `${q(e.passId)},${isoUtcMillis(e.timeS)},${q(e.satellite)},${q(e.station)},${q(e.link.name)}`;
-      for (let i = 0; i < STEP_FIELDS.length; i++) out += `,${cell(s[STEP_FIELDS[i]], STEP_DEC[i], text)}`;
-      const cs: CaseBudget[] = s.cases;
-      for (let j = 0; j < cs.length; j++) {
-        const c = cs[j];
-        for (let i = 0; i < CASE_FIELDS.length; i++) out += `,${cell(c[CASE_FIELDS[i]], CASE_DEC[i], text)}`;
-      }
-      return `${out}\n`;
+      if (e.step.cases.length !== cases.length) throw new Error(`steps.csv: step has ${e.step.cases.length} weather cases, expected ${cases.length}`);
+      return fn(e, cellAscii, q, isoUtcMillis, text);
     },
+    get ascii() { return ascii; },
   };
 }
 
 /**
- * Text to a Writable in large pieces (~256 KB), honouring backpressure: when
- * the stream's buffer passes `maxBufferedBytes`, `write` returns a promise
- * that settles on 'drain'.
+ * Text to a Writable in large pieces (1 MB buffers filled in place, so no
+ * long string is ever built), honouring backpressure: when the stream's
+ * buffer passes `maxBufferedBytes`, `write` returns a promise that settles on
+ * 'drain'. `ascii()` true lets it encode as latin1 (same bytes, cheaper).
  */
 export class ChunkedTextWriter {
-  private buf = '';
-  constructor(private readonly out: Writable, private readonly pieceChars = 1 << 18, private readonly maxBufferedBytes = 1 << 22) {}
+  private buf: Buffer;
+  private off = 0;
+  constructor(
+    private readonly out: Writable,
+    private readonly ascii: () => boolean = () => false,
+    private readonly pieceBytes = 1 << 20,
+    private readonly maxBufferedBytes = 1 << 22,
+  ) {
+    this.buf = Buffer.allocUnsafe(pieceBytes);
+  }
 
   write(text: string): void | Promise<void> {
-    this.buf += text;
-    if (this.buf.length >= this.pieceChars) return this.flush();
+    // UTF-8 needs at most 3 bytes per UTF-16 unit.
+    if (this.off + 3 * text.length > this.pieceBytes) {
+      const wait = this.flush();
+      if (3 * text.length > this.pieceBytes) return this.writeBuffer(Buffer.from(text, 'utf8'));
+      if (wait) return wait.then(() => { this.put(text); });
+    }
+    this.put(text);
     return undefined;
   }
 
+  private put(text: string): void {
+    this.off += this.ascii() ? this.buf.write(text, this.off, 'latin1') : this.buf.write(text, this.off, 'utf8');
+  }
+
   flush(): void | Promise<void> {
-    if (this.buf.length === 0) return undefined;
-    const piece = this.buf;
-    this.buf = '';
+    if (this.off === 0) return undefined;
+    const piece = this.buf.subarray(0, this.off);
+    this.buf = Buffer.allocUnsafe(this.pieceBytes);
+    this.off = 0;
     if (!this.out.write(piece) && this.out.writableLength > this.maxBufferedBytes) return once(this.out, 'drain').then(() => undefined);
     return undefined;
   }

@@ -61,7 +61,8 @@ function main(): void {
       void (async () => {
         try {
           let fd = -1;
-          let buf = '';
+          const buf = Buffer.allocUnsafe(1 << 20);
+          let off = 0;
           let stepsFile: string | null = null;
           if (fmt && init.stepsDir) {
             stepsFile = join(init.stepsDir, `s${msg.satIndex}-c${msg.chunk}.csv`);
@@ -73,8 +74,9 @@ function main(): void {
             collectSeries: init.collectSeries,
             seriesMaxPoints: init.seriesMaxPoints,
             onStep: fmt ? (e) => {
-              buf += fmt.row(e);
-              if (buf.length >= 1 << 18) { writeSync(fd, buf); buf = ''; }
+              const row = fmt.row(e);
+              if (off + 3 * row.length > buf.length) { writeSync(fd, buf, 0, off); off = 0; }
+              off += buf.write(row, off, fmt.ascii ? 'latin1' : 'utf8');
             } : undefined,
             onPassDone: (d) => {
               doneS += d;
@@ -83,7 +85,7 @@ function main(): void {
             },
           });
           if (fd >= 0) {
-            if (buf.length) writeSync(fd, buf);
+            if (off > 0) writeSync(fd, buf, 0, off);
             closeSync(fd);
           }
           if (doneS > 0) post({ type: 'progress', doneS });
