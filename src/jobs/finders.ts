@@ -104,8 +104,13 @@ export async function rateScenario(scenario: ResolvedScenario, opts: FinderOptio
 export function formatRateResult(r: RateResult): string {
   const lines = ['bit rate that maximises daily data volume (fixed-rate links; per station, without network arbitration)', ''];
   const head = ['station', 'link', 'weather', 'best_bit_rate_bps', 'daily_volume_mb', 'usable_min_per_day'];
-  const rows = r.best.map((b) => [b.station, b.link, b.weather, String(b.bitRateBps), bitsToMegabytes(b.dailyVolumeBits).toFixed(3), b.usableMinutesPerDay.toFixed(1)]);
+  const highest = Math.max(...r.trade.map((t) => t.bitRateBps));
+  const lowest = Math.min(...r.trade.map((t) => t.bitRateBps));
+  const edge = (b: RateTradePoint) => (b.bitRateBps === highest ? ' *' : b.bitRateBps === lowest ? ' +' : '');
+  const rows = r.best.map((b) => [b.station, b.link, b.weather, `${b.bitRateBps}${edge(b)}`, bitsToMegabytes(b.dailyVolumeBits).toFixed(3), b.usableMinutesPerDay.toFixed(1)]);
   lines.push(...table(head, rows, [false, false, false, true, true, true]));
+  if (r.best.some((b) => edge(b) === ' *')) lines.push('* the highest rate tried: the best rate may lie above it (widen --rates)');
+  if (r.best.some((b) => edge(b) === ' +')) lines.push('+ the lowest rate tried: the best rate may lie below it (widen --rates)');
   lines.push('', `files in ${r.outDir}:`, ...r.files.map((f) => `  ${f}`));
   return lines.join('\n');
 }
