@@ -6,7 +6,16 @@
  * made, to the caller's sink (steps.csv) and into fixed-size accumulators:
  * per pass, per UTC day, per station and for the network, and the mask and
  * rate histograms. Nothing per step is kept, so memory does not grow with
- * the window (the report's decimated series, bounded per pass, aside).
+ * the window (the per-pass and per-day summaries aside).
+ *
+ * Report series, bounded by design: with `collectSeries` the decimated
+ * series (≤ seriesMaxPoints points) are kept only for the first
+ * `seriesMaxSections` pass-link sections of the run in time order (AOS, then
+ * station, then link name: the report's order), SERIES_MAX_SECTIONS = 300 by
+ * default, chosen before the sweep from the plan. The report's margin-against-
+ * elevation envelope, which covers every pass, is accumulated instead as a
+ * fixed-size table per station, link and case (lowest and highest margin of
+ * every step per 2° elevation bin).
  *
  * Network rule: a satellite downlinks on a given link to one station at a
  * time. Where several stations see it at a grid time, the scenario's policy
@@ -23,6 +32,7 @@
  * sums, and therefore its output files, are identical to the in-process run
  * whatever the number of workers.
  */
+import type { ElevationTable } from '../budget/atmosphere.js';
 import type { LinkEngine } from '../budget/engine.js';
 import { createLinkEngine, createStepBudget } from '../budget/engine.js';
 import type { LinkSpec, StepBudget, WeatherCase } from '../budget/types.js';
@@ -72,6 +82,8 @@ export interface PipelineOptions {
   /** Keep decimated per-pass series for the report. */
   collectSeries?: boolean;
   seriesMaxPoints?: number;
+  /** With collectSeries: series only for the first this many pass-link sections in time order (default SERIES_MAX_SECTIONS). */
+  seriesMaxSections?: number;
   /** Replace every station's horizon mask by max(mask, this) (deg). */
   maskFloorDeg?: number;
   /** Progress callback: seconds of pass time processed and total. */
@@ -87,12 +99,28 @@ export interface StationLinkHistograms {
   rate: RateHistogram | null;
 }
 
+/**
+ * Lowest and highest margin (dB) of every step per elevation bin
+ * [k·ENVELOPE_BIN_DEG, (k+1)·ENVELOPE_BIN_DEG), the last bin closed at 90°
+ * (the bins of d3-array `bin` with thresholds every 2° over [0, 90]); +∞/−∞
+ * where a bin saw no finite margin.
+ */
+export interface StationLinkEnvelope {
+  station: string;
+  link: string;
+  weather: string;
+  minDB: Float64Array;
+  maxDB: Float64Array;
+}
+
 export interface PipelineResult {
   passes: Pass[];
   passLinks: PassLinkSummary[];
   daily: DailyRow[];
   histograms: StationLinkHistograms[];
   series: PassSeriesData[];
+  /** With collectSeries: per station, link and case (empty otherwise). */
+  envelopes: StationLinkEnvelope[];
   /** Grid steps evaluated (per station in view, per link counted once per station). */
   stationSteps: number;
   /** Grid times at which the satellite was propagated. */
@@ -104,6 +132,18 @@ export interface PipelineResult {
 
 /** Chunks per satellite: fixed (not tied to the worker count) so every run merges the same partial sums. */
 export const CHUNKS_PER_SATELLITE = 24;
+
+/** Default cap on the pass-link sections whose series are kept for the report (see the file comment). */
+export const SERIES_MAX_SECTIONS = 300;
+
+export const ENVELOPE_BIN_DEG = 2;
+export const ENVELOPE_BINS = 45;
+
+/** Envelope bin of an elevation (deg), −1 outside [0°, 90°] or NaN. */
+export function envelopeBin(elevationDeg: number): number {
+  if (!(elevationDeg >= 0 && elevationDeg <= 90)) return -1;
+  return Math.min(ENVELOPE_BINS - 1, Math.floor(elevationDeg / ENVELOPE_BIN_DEG));
+}
 
 // ---------------------------------------------------------------------------
 // Layout: which stations and links a satellite has (cheap, no engines).
@@ -155,6 +195,8 @@ export interface PlannedPass {
   passId: string;
   kFirst: number;
   kLast: number;
+  /** Names of the links whose series are kept for this pass (set by selectSeries). */
+  seriesLinks?: string[];
 }
 
 export interface SatellitePlan {
@@ -168,24 +210,52 @@ export interface SatellitePlan {
   totalS: number;
 }
 
+/** The passes of layout station `stationIndex` (orbit and geometry only; what a worker thread can do for the plan). */
+export function findStationPasses(scenario: ResolvedScenario, layout: SatelliteLayout, stationIndex: number): Pass[] {
+  const { startS, endS } = scenario.window;
+  const propagator = createPropagator(scenario.satellites[layout.satIndex].elements);
+  return findPasses({ propagator, station: layout.stations[stationIndex].entry.station, startS, endS });
+}
+
 export function planSatellite(scenario: ResolvedScenario, layout: SatelliteLayout, chunks = CHUNKS_PER_SATELLITE): SatellitePlan {
-  const { startS, endS, stepS } = scenario.window;
+  return planFromPasses(scenario, layout, layout.stations.map((_, si) => findStationPasses(scenario, layout, si)), chunks);
+}
+
+/** The plan from each layout station's passes (as findStationPasses returns them). */
+export function planFromPasses(scenario: ResolvedScenario, layout: SatelliteLayout, passesByStation: Pass[][], chunks = CHUNKS_PER_SATELLITE): SatellitePlan {
+  const { startS, stepS } = scenario.window;
   const sat = scenario.satellites[layout.satIndex];
-  const propagator = createPropagator(sat.elements);
   const items: PlannedPass[] = [];
-  const passesByStation = layout.stations.map((st, si) => {
-    const passes = findPasses({ propagator, station: st.entry.station, startS, endS });
+  layout.stations.forEach((st, si) => {
+    const passes = passesByStation[si];
     for (const p of passes) {
       const kFirst = Math.ceil((p.aosS - startS) / stepS - 1e-9);
       const kLast = Math.floor((p.losS - startS) / stepS + 1e-9);
       items.push({ station: si, pass: p, passId: `${sat.name}/${st.entry.station.name}/${p.index}`, kFirst, kLast });
     }
-    return passes;
   });
   const name = (it: PlannedPass) => layout.stations[it.station].entry.station.name;
   items.sort((a, b) => a.pass.aosS - b.pass.aosS || name(a).localeCompare(name(b)));
   const totalS = items.reduce((s, it) => s + it.pass.durationS, 0);
   return { passesByStation, items, chunkStarts: chunkStarts(items, chunks), totalS };
+}
+
+/**
+ * Mark the first `maxSections` pass-link sections of the run, in the report's
+ * order (AOS, station name, link name), as the ones whose series are kept.
+ */
+export function selectSeries(plans: readonly { layout: SatelliteLayout; plan: SatellitePlan }[], maxSections: number): void {
+  const all: { aosS: number; station: string; link: string; item: PlannedPass }[] = [];
+  for (const { layout, plan } of plans) {
+    for (const it of plan.items) {
+      it.seriesLinks = [];
+      const st = layout.stations[it.station];
+      for (const l of st.links) all.push({ aosS: it.pass.aosS, station: st.entry.station.name, link: l.name, item: it });
+    }
+  }
+  if (!(maxSections > 0)) return;
+  all.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station) || a.link.localeCompare(b.link));
+  for (let i = 0; i < Math.min(maxSections, all.length); i++) all[i].item.seriesLinks!.push(all[i].link);
 }
 
 /**
@@ -224,6 +294,8 @@ export interface ChunkPartial {
   /** Per layout station, link and case. */
   mask: MaskHistogramState[];
   rate: (RateHistogramState | null)[];
+  /** With collectSeries: per layout station, link and case, [min (ENVELOPE_BINS) | max (ENVELOPE_BINS)]; else empty. */
+  envelope: Float64Array[];
   stationSteps: number;
   gridTimes: number;
   linkSteps: number;
@@ -236,6 +308,7 @@ interface LinkRun {
   daily: DailyAccumulator[]; // per case
   mask: MaskHistogram[]; // per case
   rate: (RateHistogram | null)[]; // per case
+  envelope: Float64Array[]; // per case, when collecting series
   pass: PassAccumulator | null;
   series: PassSeriesData | null;
   seriesEvery: number;
@@ -287,8 +360,13 @@ function sharedPropagator(inner: Propagator): Propagator {
   };
 }
 
-/** Engines, geometry and reusable records for one satellite (the expensive part: elevation tables). */
-export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayout): Sweeper {
+/**
+ * Engines, geometry and reusable records for one satellite. The expensive
+ * part is the engines' elevation tables; `tables` (one per layout station and
+ * link, in that order, e.g. `sweeper.engines.map((e) => e.table)` of a
+ * sweeper built elsewhere) skips building them.
+ */
+export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayout, tables?: readonly ElevationTable[]): Sweeper {
   const { startS, endS, stepS } = scenario.window;
   const cases: WeatherCase[] = scenario.weatherCases;
   const nCases = cases.length;
@@ -297,10 +375,10 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   const engines: LinkEngine[] = [];
   const stations: StationRun[] = layout.stations.map((st) => {
     const links: LinkRun[] = st.links.map((link) => {
-      const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases });
+      const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length] });
       engines.push(engine);
       return {
-        link, engine, step: createStepBudget(cases), daily: [], mask: [], rate: [],
+        link, engine, step: createStepBudget(cases), daily: [], mask: [], rate: [], envelope: [],
         pass: null, series: null, seriesEvery: 1, seriesCount: 0,
       };
     });
@@ -321,7 +399,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   async function sweepChunk(items: readonly PlannedPass[], chunk: number, o: SweepOptions): Promise<ChunkPartial> {
     const seriesMax = o.seriesMaxPoints ?? 120;
     const part: ChunkPartial = {
-      satIndex: layout.satIndex, chunk, passLinks: [], series: [], daily: [], mask: [], rate: [],
+      satIndex: layout.satIndex, chunk, passLinks: [], series: [], daily: [], mask: [], rate: [], envelope: [],
       stationSteps: 0, gridTimes: 0, linkSteps: 0,
     };
     // Fresh accumulators for this chunk.
@@ -330,6 +408,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         lr.daily = cases.map((c) => createDailyAccumulator({ startS, endS, link: lr.link, weather: c.name, exportable: true }));
         lr.mask = cases.map((c) => createMaskHistogram({ station: st.name, link: lr.link.name, weather: c.name }));
         lr.rate = cases.map((c) => (lr.link.modcod.kind === 'fixed' ? createRateHistogram({ station: st.name, link: lr.link.name, weather: c.name }) : null));
+        lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
       }
     }
     const netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
@@ -349,7 +428,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           },
           weatherCases: cases,
         });
-        if (o.collectSeries) {
+        if (o.collectSeries && it.seriesLinks?.includes(lr.link.name)) {
           lr.seriesEvery = Math.max(1, Math.ceil(expected / seriesMax));
           lr.seriesCount = 0;
           lr.series = {
@@ -425,6 +504,18 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             const rh = lr.rate[ci];
             if (rh) rh.add(c.c_over_n0_dbhz, stepS);
           }
+          if (lr.envelope.length > 0) {
+            const b = envelopeBin(el);
+            if (b >= 0) {
+              for (let ci = 0; ci < nCases; ci++) {
+                const m = step.cases[ci].margin_db;
+                if (!Number.isFinite(m)) continue;
+                const env = lr.envelope[ci];
+                if (m < env[b]) env[b] = m;
+                if (m > env[ENVELOPE_BINS + b]) env[ENVELOPE_BINS + b] = m;
+              }
+            }
+          }
           if (lr.series && lr.seriesCount++ % lr.seriesEvery === 0) {
             const s = lr.series;
             s.timeS.push(t); s.azimuthDeg.push(step.azimuth_deg); s.elevationDeg.push(el);
@@ -486,8 +577,9 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           part.mask.push(lr.mask[ci].exportState());
           const rh = lr.rate[ci];
           part.rate.push(rh ? rh.exportState() : null);
+          if (lr.envelope.length > 0) part.envelope.push(lr.envelope[ci]);
         }
-        lr.daily = []; lr.mask = []; lr.rate = [];
+        lr.daily = []; lr.mask = []; lr.rate = []; lr.envelope = [];
       }
     }
     for (const accs of netDaily) for (const a of accs) part.daily.push(a.exportState());
@@ -495,6 +587,13 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   }
 
   return { layout, engines, sweepChunk };
+}
+
+function emptyEnvelope(): Float64Array {
+  const e = new Float64Array(2 * ENVELOPE_BINS);
+  e.fill(Infinity, 0, ENVELOPE_BINS);
+  e.fill(-Infinity, ENVELOPE_BINS);
+  return e;
 }
 
 // ---------------------------------------------------------------------------
@@ -517,10 +616,12 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
   const cases = scenario.weatherCases;
   const daily: DailyAccumulator[] = [];
   const hists: StationLinkHistograms[] = [];
+  const envelopes: StationLinkEnvelope[] = [];
   for (const st of layout.stations) {
     const name = st.entry.station.name;
     for (const link of st.links) {
       for (const c of cases) {
+        envelopes.push({ station: name, link: link.name, weather: c.name, minDB: new Float64Array(ENVELOPE_BINS).fill(Infinity), maxDB: new Float64Array(ENVELOPE_BINS).fill(-Infinity) });
         daily.push(createDailyAccumulator({ startS, endS, link, weather: c.name }));
         const h: StationLinkHistograms = {
           station: name, link, weather: c.name,
@@ -540,6 +641,7 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
     }
   }
   let next = 0;
+  let envelopesKept = false;
   return {
     add(part) {
       if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
@@ -549,6 +651,14 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
       part.daily.forEach((d, i) => daily[i].mergeState(d));
       part.mask.forEach((m, i) => hists[i].mask.mergeState(m));
       part.rate.forEach((r, i) => { if (r) hists[i].rate!.mergeState(r); });
+      part.envelope.forEach((e, i) => {
+        const t = envelopes[i];
+        for (let b = 0; b < ENVELOPE_BINS; b++) {
+          if (e[b] < t.minDB[b]) t.minDB[b] = e[b];
+          if (e[ENVELOPE_BINS + b] > t.maxDB[b]) t.maxDB[b] = e[ENVELOPE_BINS + b];
+        }
+      });
+      if (part.envelope.length > 0 && !envelopesKept) { for (const e of envelopes) result.envelopes.push(e); envelopesKept = true; }
       result.stationSteps += part.stationSteps;
       result.gridTimes += part.gridTimes;
       result.linkSteps += part.linkSteps;
@@ -561,7 +671,7 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
 }
 
 export function emptyPipelineResult(): PipelineResult {
-  return { passes: [], passLinks: [], daily: [], histograms: [], series: [], stationSteps: 0, gridTimes: 0, linkSteps: 0, engines: [] };
+  return { passes: [], passLinks: [], daily: [], histograms: [], series: [], envelopes: [], stationSteps: 0, gridTimes: 0, linkSteps: 0, engines: [] };
 }
 
 /** The final ordering of the run's tables (the same for in-process and parallel runs). */
@@ -579,13 +689,18 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
   const { scenario } = options;
   const result = emptyPipelineResult();
   const networkDaily: DailyRow[] = [];
+  // Plan every satellite first (cheap), so the report's series can be chosen over the whole run.
+  const plans: { layout: SatelliteLayout; plan: SatellitePlan }[] = [];
   for (let satIndex = 0; satIndex < scenario.satellites.length; satIndex++) {
     const layout = satelliteLayout(scenario, satIndex, options.maskFloorDeg);
     if (layout.stations.length === 0) continue;
+    plans.push({ layout, plan: planSatellite(scenario, layout) });
+  }
+  if (options.collectSeries) selectSeries(plans, options.seriesMaxSections ?? SERIES_MAX_SECTIONS);
+  for (const { layout, plan } of plans) {
     const sweeper = createSweeper(scenario, layout);
     for (const e of sweeper.engines) result.engines.push(e);
     const merge = createSatelliteMerge(scenario, layout, result);
-    const plan = planSatellite(scenario, layout);
     for (const ps of plan.passesByStation) for (const p of ps) result.passes.push(p);
     let doneS = 0;
     const sweep: SweepOptions = {

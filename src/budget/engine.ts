@@ -49,6 +49,11 @@ export interface LinkEngineOptions {
   weatherCases: WeatherCase[];
   /** Refinement tolerance of the elevation table (dB); default 0.0002. */
   tableToleranceDB?: number;
+  /**
+   * A prebuilt elevation table for this same link, climate and weather cases
+   * (e.g. built in another thread and structured-cloned); skips building one.
+   */
+  table?: ElevationTable;
 }
 
 /** Intermediate values of the last evaluated step (for explain; overwritten each step). */
@@ -147,7 +152,10 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const txAnt = downlink ? scAnt : gndAnt;
 
   const ctx: AtmosphereContext = createAtmosphereContext(link, climate, weatherCases, gndAnt, rxAnt);
-  const table = buildElevationTable(ctx, options.tableToleranceDB);
+  if (options.table && options.table.caseCount !== weatherCases.length) {
+    throw new Error(`link ${link.name}: prebuilt elevation table has ${options.table.caseCount} weather cases, expected ${weatherCases.length}`);
+  }
+  const table = options.table ?? buildElevationTable(ctx, options.tableToleranceDB);
   const nTerms = weatherCases.length * TERM_COUNT;
   const terms = new Float64Array(nTerms);
 

@@ -8,7 +8,7 @@
 import { resolve, join } from 'node:path';
 import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
 import { findMask, maskTrade } from '../analysis/maskHistogram.js';
-import type { PipelineResult } from '../analysis/pipeline.js';
+import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope } from '../analysis/pipeline.js';
 import { bitsToMegabytes } from '../analysis/units.js';
 import type { MaskFinding, MaskTradePoint, RunSummary } from '../analysis/types.js';
 import { epochWarning } from '../elements/index.js';
@@ -16,7 +16,7 @@ import { AtomicOutputDir } from '../output/atomic.js';
 import { csvText } from '../output/csv.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
-import type { ReportInput } from '../output/report/types.js';
+import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import {
   DAILY_COLUMNS, PASS_COLUMNS, dailyRows, passJson, passRows, runSummary,
@@ -83,11 +83,32 @@ export function reportContext(scenario: ResolvedScenario): Pick<ReportInput, 're
   return { requiredMarginDB, horizonMasks };
 }
 
+/** The pipeline's per-station envelopes pooled per link and weather case (lowest of the lows, highest of the highs). */
+export function linkEnvelopes(envelopes: readonly StationLinkEnvelope[]): LinkEnvelope[] {
+  const out = new Map<string, { link: string; weather: string; minDB: Float64Array; maxDB: Float64Array }>();
+  for (const e of envelopes) {
+    const key = `${e.link}\u0000${e.weather}`;
+    let t = out.get(key);
+    if (!t) { t = { link: e.link, weather: e.weather, minDB: new Float64Array(ENVELOPE_BINS).fill(Infinity), maxDB: new Float64Array(ENVELOPE_BINS).fill(-Infinity) }; out.set(key, t); }
+    for (let b = 0; b < ENVELOPE_BINS; b++) {
+      t.minDB[b] = Math.min(t.minDB[b], e.minDB[b]);
+      t.maxDB[b] = Math.max(t.maxDB[b], e.maxDB[b]);
+    }
+  }
+  return [...out.values()].map((t) => ({
+    link: t.link, weather: t.weather,
+    bins: Array.from(t.minDB, (lo, b) => ({ elevationDeg: (b + 0.5) * ENVELOPE_BIN_DEG, minDB: lo, maxDB: t.maxDB[b] })).filter((b) => Number.isFinite(b.minDB)),
+  }));
+}
+
 export function reportInput(
   scenario: ResolvedScenario, summary: RunSummary, p: PipelineResult,
   extra: Pick<ReportInput, 'maskTrade' | 'maskFindings' | 'rateTrade'> = {},
 ): ReportInput {
-  return { summary, passes: p.passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra };
+  return {
+    summary, passes: p.passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra,
+    ...(p.envelopes.length > 0 ? { envelopes: linkEnvelopes(p.envelopes) } : {}),
+  };
 }
 
 export async function runScenario(scenario: ResolvedScenario, opts: RunOptions = {}): Promise<RunResult> {

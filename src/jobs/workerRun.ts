@@ -1,8 +1,11 @@
 /**
- * The pipeline on worker threads. The main thread finds every satellite's
- * passes and cuts its sweep into the pipeline's fixed chunks (cuts where no
- * station sees the satellite: no pass or network contact crosses one); the
- * workers sweep chunks as they become free, each writing its steps.csv rows
+ * The pipeline on worker threads. The workers find every satellite's passes
+ * (a task per satellite and station) while the main thread builds the link
+ * engines once and sends their elevation tables to every worker (structured
+ * clone of Float64Arrays: the workers build none). The main thread then cuts
+ * each sweep into the pipeline's fixed chunks (cuts where no station sees the
+ * satellite: no pass or network contact crosses one); the workers sweep
+ * chunks as they become free, each writing its steps.csv rows
  * to a file of its own; the main thread merges the chunks' accumulators and
  * appends their rows to steps.csv strictly in chunk order, which is the order
  * of the in-process sweep. So every output is byte-identical to the
@@ -14,11 +17,13 @@ import { join } from 'node:path';
 import type { Writable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import type { LinkEngine } from '../budget/engine.js';
 import {
-  createSatelliteMerge, createSweeper, emptyPipelineResult, finishPipelineResult, planSatellite, runPipeline,
-  satelliteLayout, type ChunkPartial, type PipelineResult, type PlannedPass, type SatelliteMerge,
+  createSatelliteMerge, createSweeper, emptyPipelineResult, finishPipelineResult, planFromPasses, runPipeline,
+  satelliteLayout, selectSeries, SERIES_MAX_SECTIONS, type ChunkPartial, type PipelineResult, type PlannedPass,
+  type SatelliteLayout, type SatelliteMerge,
 } from '../analysis/pipeline.js';
+import type { ElevationTable } from '../budget/atmosphere.js';
+import type { Pass } from '../passes/types.js';
 import type { DailyRow } from '../analysis/types.js';
 import { InputError } from '../errors.js';
 import type { ResolvedScenario } from '../scenario/types.js';
@@ -33,6 +38,8 @@ export interface ParallelPipelineOptions {
   stepsOut?: Writable | null;
   collectSeries?: boolean;
   seriesMaxPoints?: number;
+  /** See PipelineOptions.seriesMaxSections. */
+  seriesMaxSections?: number;
   maskFloorDeg?: number;
   /** Seconds of pass time done and the total (all satellites). */
   onProgress?: (doneS: number, totalS: number) => void;
@@ -58,24 +65,6 @@ function defaultWorkerScript(): string {
   throw new Error(`parallel run: no worker script at ${here} or ${built} (run npm run build)`);
 }
 
-/** Engines are built only in the workers; `engines` builds the main thread's copy when first read. */
-function lazyEngines(result: PipelineResult, scenario: ResolvedScenario, maskFloorDeg: number | undefined): void {
-  let cache: LinkEngine[] | null = null;
-  Object.defineProperty(result, 'engines', {
-    enumerable: true,
-    get() {
-      if (!cache) {
-        cache = [];
-        scenario.satellites.forEach((_, i) => {
-          const layout = satelliteLayout(scenario, i, maskFloorDeg);
-          if (layout.stations.length > 0) cache!.push(...createSweeper(scenario, layout).engines);
-        });
-      }
-      return cache;
-    },
-  });
-}
-
 export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<PipelineResult> {
   const { scenario } = o;
   const workers = o.workers ?? 1;
@@ -85,14 +74,16 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
 
   if (workers <= 1) {
     const result = await runPipeline({
-      scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress,
+      scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections, maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress,
       onStep: writer && fmt ? (e) => writer.write(fmt.row(e)) : undefined,
     });
     if (writer) await writer.close();
     return result;
   }
 
-  // Plan every satellite here (passes, chunks); the workers build engines meanwhile.
+  // The workers find the passes (one task per satellite and station) while this
+  // thread builds the engines once and sends their elevation tables to every
+  // worker; then this thread plans the chunks and the workers sweep them.
   const stepsDir = writer ? mkdtempSync(join(tmpdir(), 'passbudget-steps-')) : null;
   const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir };
   const script = o.workerScript ?? defaultWorkerScript();
@@ -100,61 +91,75 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   try {
     for (let w = 0; w < workers; w++) pool.push(new Worker(script, { workerData: init }));
     const result = emptyPipelineResult();
-    lazyEngines(result, scenario, o.maskFloorDeg);
-    const tasks: { satIndex: number; chunk: number; items: PlannedPass[]; merge: SatelliteMerge }[] = [];
-    const merges: SatelliteMerge[] = [];
-    let totalS = 0;
+    const layouts: SatelliteLayout[] = [];
     for (let satIndex = 0; satIndex < scenario.satellites.length; satIndex++) {
       const layout = satelliteLayout(scenario, satIndex, o.maskFloorDeg);
-      if (layout.stations.length === 0) continue;
-      const merge = createSatelliteMerge(scenario, layout, result);
-      merges.push(merge);
-      const plan = planSatellite(scenario, layout);
-      for (const ps of plan.passesByStation) for (const p of ps) result.passes.push(p);
-      totalS += plan.totalS;
-      for (let c = 0; c + 1 < plan.chunkStarts.length; c++) {
-        tasks.push({ satIndex, chunk: c, items: plan.items.slice(plan.chunkStarts[c], plan.chunkStarts[c + 1]), merge });
-      }
+      if (layout.stations.length > 0) layouts.push(layout);
     }
+    const passTasks = layouts.flatMap((layout, li) => layout.stations.map((_, station) => ({ li, satIndex: layout.satIndex, station })));
+    const passesBy: Pass[][][] = layouts.map((l) => l.stations.map(() => []));
+    const chunkTasks: { satIndex: number; chunk: number; items: PlannedPass[]; merge: SatelliteMerge }[] = [];
+    const merges: SatelliteMerge[] = [];
+    let totalS = 0;
 
     await new Promise<void>((resolveAll, rejectAll) => {
       let failed = false;
-      let next = 0;
+      const idle: Worker[] = [];
+      const queue: ToWorker[] = passTasks.map((t, task) => ({ type: 'passes', task, satIndex: t.satIndex, station: t.station }));
+      let passesLeft = passTasks.length;
       let merged = 0;
       let doneS = 0;
       const ready = new Map<number, { partial: ChunkPartial; stepsFile: string | null }>();
       let chain: Promise<void> = Promise.resolve();
       const fail = (err: unknown) => { if (!failed) { failed = true; rejectAll(err); } };
-      const dispatch = (w: Worker) => {
-        if (failed || next >= tasks.length) return;
-        const t = tasks[next];
-        const msg: ToWorker = { type: 'chunk', task: next, satIndex: t.satIndex, chunk: t.chunk, items: t.items };
-        next++;
-        w.postMessage(msg);
+      const pump = () => { while (!failed && idle.length > 0 && queue.length > 0) idle.shift()!.postMessage(queue.shift()!); };
+      // All passes in: the plan (the same as the in-process run's), then the chunk tasks.
+      const plan = () => {
+        const plans = layouts.map((layout, li) => ({ layout, plan: planFromPasses(scenario, layout, passesBy[li]) }));
+        if (o.collectSeries) selectSeries(plans, o.seriesMaxSections ?? SERIES_MAX_SECTIONS);
+        for (const { layout, plan: p } of plans) {
+          const merge = createSatelliteMerge(scenario, layout, result);
+          merges.push(merge);
+          for (const ps of p.passesByStation) for (const x of ps) result.passes.push(x);
+          totalS += p.totalS;
+          for (let c = 0; c + 1 < p.chunkStarts.length; c++) {
+            const items = p.items.slice(p.chunkStarts[c], p.chunkStarts[c + 1]);
+            queue.push({ type: 'chunk', task: chunkTasks.length, satIndex: layout.satIndex, chunk: c, items });
+            chunkTasks.push({ satIndex: layout.satIndex, chunk: c, items, merge });
+          }
+        }
+        if (chunkTasks.length === 0) resolveAll();
       };
       // Merge and append rows strictly in task order.
       const drain = async () => {
         while (!failed && ready.has(merged)) {
           const { partial, stepsFile } = ready.get(merged)!;
           ready.delete(merged);
-          tasks[merged].merge.add(partial);
+          chunkTasks[merged].merge.add(partial);
           if (writer && stepsFile) {
             for await (const piece of createReadStream(stepsFile, { highWaterMark: 1 << 20 })) await writer.writeBuffer(piece as Buffer);
             rmSync(stepsFile, { force: true });
           }
           merged++;
         }
-        if (!failed && merged === tasks.length) resolveAll();
+        if (!failed && merged === chunkTasks.length) resolveAll();
       };
-      if (tasks.length === 0) { resolveAll(); return; }
       for (const w of pool) {
         w.on('message', (m: FromWorker) => {
-          if (m.type === 'progress') {
+          if (failed) return;
+          if (m.type === 'passes') {
+            const t = passTasks[m.task];
+            passesBy[t.li][t.station] = m.passes;
+            if (--passesLeft === 0) plan();
+            idle.push(w);
+            pump();
+          } else if (m.type === 'progress') {
             doneS += m.doneS;
             o.onProgress?.(doneS, totalS);
           } else if (m.type === 'done') {
             ready.set(m.task, { partial: m.partial, stepsFile: m.stepsFile });
-            dispatch(w);
+            idle.push(w);
+            pump();
             chain = chain.then(drain).catch(fail);
           } else {
             const err = m.name === 'InputError' ? new InputError(m.message) : new Error(m.message);
@@ -164,8 +169,24 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
         });
         w.on('error', fail);
         w.on('exit', (code) => { if (code !== 0) fail(new Error(`parallel run: a worker exited with code ${code}`)); });
-        dispatch(w);
+        idle.push(w);
       }
+      pump();
+      // While the workers find passes: the engines, once, here; their tables go to every worker before any chunk.
+      try {
+        const tables: [number, ElevationTable[]][] = [];
+        for (const layout of layouts) {
+          const engines = createSweeper(scenario, layout).engines;
+          for (const e of engines) result.engines.push(e);
+          tables.push([layout.satIndex, engines.map((e) => e.table)]);
+        }
+        const msg: ToWorker = { type: 'tables', tables };
+        for (const w of pool) w.postMessage(msg);
+      } catch (err) {
+        fail(err);
+        return;
+      }
+      if (passTasks.length === 0) plan();
     });
     if (writer) await writer.close();
     const networkDaily: DailyRow[] = [];

@@ -1,6 +1,8 @@
 /**
- * Worker thread of a parallel run (see workerRun.ts): builds the satellite's
- * engines once, then sweeps the chunks it is sent with the same code as the
+ * Worker thread of a parallel run (see workerRun.ts). First it finds the
+ * passes of the stations it is sent (the plan's expensive part); it receives
+ * the engines' elevation tables built once by the main thread (so it builds
+ * none); then it sweeps the chunks it is sent with the same code as the
  * in-process run (analysis/pipeline.ts), writes each chunk's steps.csv rows
  * to its own file and posts the chunk's accumulator state back (typed arrays
  * transferred, not copied).
@@ -8,7 +10,11 @@
 import { closeSync, openSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import { parentPort, workerData } from 'node:worker_threads';
-import { createSweeper, satelliteLayout, type ChunkPartial, type PlannedPass, type Sweeper } from '../analysis/pipeline.js';
+import {
+  createSweeper, findStationPasses, satelliteLayout, type ChunkPartial, type PlannedPass, type Sweeper,
+} from '../analysis/pipeline.js';
+import type { ElevationTable } from '../budget/atmosphere.js';
+import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { createStepsCsvFormatter } from './workerStepsCsv.js';
 
@@ -21,8 +27,13 @@ export interface WorkerInit {
   stepsDir: string | null;
 }
 
-export type ToWorker = { type: 'chunk'; task: number; satIndex: number; chunk: number; items: PlannedPass[] };
+export type ToWorker =
+  | { type: 'passes'; task: number; satIndex: number; station: number }
+  /** Per satellite index: its engines' tables (layout station × link order); sent before any chunk. */
+  | { type: 'tables'; tables: [number, ElevationTable[]][] }
+  | { type: 'chunk'; task: number; satIndex: number; chunk: number; items: PlannedPass[] };
 export type FromWorker =
+  | { type: 'passes'; task: number; passes: Pass[] }
   | { type: 'progress'; doneS: number }
   | { type: 'done'; task: number; partial: ChunkPartial; stepsFile: string | null }
   | { type: 'error'; name: string; message: string; stack?: string };
@@ -33,6 +44,7 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   for (const d of p.daily) { add(d.passes); add(d.usablePasses); add(d.usableS); add(d.fixedBits); add(d.adaptiveBits); add(d.runs); }
   for (const m of p.mask) { add(m.timeS); add(m.usableS); add(m.volumeBits); }
   for (const r of p.rate) if (r) add(r.timeS);
+  for (const e of p.envelope) add(e);
   return [...out];
 }
 
@@ -48,16 +60,28 @@ function main(): void {
   };
   try {
     const sweepers = new Map<number, Sweeper>();
+    const tables = new Map<number, ElevationTable[]>();
     const sweeperFor = (satIndex: number) => {
       let s = sweepers.get(satIndex);
-      if (!s) { s = createSweeper(scenario, satelliteLayout(scenario, satIndex, init.maskFloorDeg)); sweepers.set(satIndex, s); }
+      if (!s) { s = createSweeper(scenario, satelliteLayout(scenario, satIndex, init.maskFloorDeg), tables.get(satIndex)); sweepers.set(satIndex, s); }
       return s;
     };
-    // Build the engines (elevation tables) now, while the main thread finds the passes.
-    scenario.satellites.forEach((_, i) => { if (satelliteLayout(scenario, i, init.maskFloorDeg).stations.length > 0) sweeperFor(i); });
     const fmt = init.stepsDir ? createStepsCsvFormatter(scenario.weatherCases) : null;
 
     port.on('message', (msg: ToWorker) => {
+      if (msg.type === 'tables') {
+        for (const [satIndex, t] of msg.tables) tables.set(satIndex, t);
+        return;
+      }
+      if (msg.type === 'passes') {
+        try {
+          const passes = findStationPasses(scenario, satelliteLayout(scenario, msg.satIndex, init.maskFloorDeg), msg.station);
+          post({ type: 'passes', task: msg.task, passes });
+        } catch (err) {
+          fail(err);
+        }
+        return;
+      }
       void (async () => {
         try {
           let fd = -1;

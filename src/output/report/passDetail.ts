@@ -13,7 +13,11 @@ export function passAnchor(index: number): string {
   return `pass-${index}`;
 }
 
-export function passDetail(p: PassLinkSummary, index: number, series: PassSeries | undefined, requiredDB: number | null, mask: [number, number][] | undefined): string {
+/** `skyBackgroundId`: the station's sky-plot background symbol in this document (see skyBackgroundSymbol), if any. */
+export function passDetail(
+  p: PassLinkSummary, index: number, series: PassSeries | undefined, requiredDB: number | null, mask: [number, number][] | undefined,
+  skyBackgroundId?: string,
+): string {
   const first = p.cases[0];
   const clip = [p.clippedStart ? 'starts before the window' : '', p.clippedEnd ? 'ends after the window' : ''].filter(Boolean).join(', ');
   const caseRows = p.cases.map((c) => `<tr><th>${h(c.weather)}</th>`
@@ -39,7 +43,7 @@ export function passDetail(p: PassLinkSummary, index: number, series: PassSeries
     charts = `<div class="charts">
 <figure>${timeChart(series, p, 'margin', requiredDB, uid)}<figcaption>Margin against time, one line per weather case.</figcaption></figure>
 <figure>${timeChart(series, p, 'ebn0', null, uid)}<figcaption>Eb/N0 against time.</figcaption></figure>
-<figure>${skyPlot(`Sky track of ${p.passId} seen from ${p.station}`, { azimuthDeg: series.azimuthDeg, elevationDeg: series.elevationDeg }, mask)}<figcaption>Sky track: north up, east right, zenith at the centre; shaded: below the horizon mask.</figcaption></figure>
+<figure>${skyPlot(`Sky track of ${p.passId} seen from ${p.station}`, { azimuthDeg: series.azimuthDeg, elevationDeg: series.elevationDeg }, mask, undefined, skyBackgroundId)}<figcaption>Sky track: north up, east right, zenith at the centre; shaded: below the horizon mask.</figcaption></figure>
 </div>${legend(styles, 'line', extra)}`;
   }
   const summaryLine = `<strong>${h(p.passId)}</strong> · ${h(p.link)} · ${h(formatUtc(p.aosS))} UTC · peak ${formatFixed(p.maxElevationDeg, 1)}°`

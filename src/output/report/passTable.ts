@@ -15,11 +15,14 @@ export const PASS_TABLE_COLUMNS: Column[] = [
 
 const num = (v: number, shown: string) => `<td class="num" data-v="${Number.isFinite(v) ? v : ''}">${shown}</td>`;
 
-export function passTable(passes: PassLinkSummary[], indexOf: (p: PassLinkSummary) => number): string {
+/** `drawn(i)`: pass i has a detailed section to link to. */
+export function passTable(passes: PassLinkSummary[], indexOf: (p: PassLinkSummary) => number, drawn: (index: number) => boolean = () => true): string {
   const head = PASS_TABLE_COLUMNS.map((c) => `<th${c.num ? ' class="num" data-type="num"' : ''} scope="col">${h(c.head)}</th>`).join('');
   const rows = passes.flatMap((p) => p.cases.map((c) => {
     const vol = caseVolumeBits(c) / 1e6;
-    return `<tr><td><a href="#${passAnchor(indexOf(p))}">${h(p.passId)}</a></td><td>${h(p.station)}</td><td>${h(p.link)}</td><td>${h(c.weather)}</td>`
+    const i = indexOf(p);
+    const id = drawn(i) ? `<a href="#${passAnchor(i)}">${h(p.passId)}</a>` : h(p.passId);
+    return `<tr><td>${id}</td><td>${h(p.station)}</td><td>${h(p.link)}</td><td>${h(c.weather)}</td>`
       + num(p.aosS, h(formatUtc(p.aosS))) + num(p.losS, h(formatUtc(p.losS)))
       + num(p.maxElevationDeg, formatFixed(p.maxElevationDeg, 1)) + num(p.durationS / 60, formatFixed(p.durationS / 60, 1))
       + num(c.usableDurationS / 60, formatFixed(c.usableDurationS / 60, 1)) + num(c.minMarginDB, formatFixed(c.minMarginDB, 1))

@@ -42,7 +42,27 @@ export function skyProjection(frame: Frame = SKY_FRAME): SkyProjection {
 
 export interface SkyTrack { azimuthDeg: number[]; elevationDeg: number[]; label?: string }
 
-export function skyPlot(title: string, track: SkyTrack, mask: [number, number][] | undefined, frame: Frame = SKY_FRAME): string {
+/**
+ * A sky plot. The background (horizon-mask ground, rings, spokes, compass
+ * letters) is the same for every pass of a station: with `backgroundId` the
+ * plot refers to a `<symbol>` made once by `skyBackgroundSymbol` (inline in
+ * the same document) instead of drawing it again.
+ */
+export function skyPlot(title: string, track: SkyTrack, mask: [number, number][] | undefined, frame: Frame = SKY_FRAME, backgroundId?: string): string {
+  const p = skyProjection(frame);
+  let body = backgroundId === undefined
+    ? skyBackground(mask, frame)
+    : tag('use', { href: `#${backgroundId}`, x: 0, y: 0, width: frame.width, height: frame.height });
+  body += skyTrack(p, track);
+  return svgRoot(frame, title, body, 'chart sky');
+}
+
+/** The background once, as a `<symbol>` for `skyPlot(…, backgroundId)`; place it inside an `<svg>` (e.g. a hidden one). */
+export function skyBackgroundSymbol(id: string, mask: [number, number][] | undefined, frame: Frame = SKY_FRAME): string {
+  return tag('symbol', { id, viewBox: `0 0 ${frame.width} ${frame.height}`, width: frame.width, height: frame.height }, skyBackground(mask, frame));
+}
+
+function skyBackground(mask: [number, number][] | undefined, frame: Frame): string {
   const p = skyProjection(frame);
   let body = '';
   // Horizon mask as ground: the area between the rim (0°) and the mask line, evenodd-filled.
@@ -76,6 +96,12 @@ export function skyPlot(title: string, track: SkyTrack, mask: [number, number][]
     const dy = -Math.cos((az * Math.PI) / 180) * 11;
     body += text({ x: x + dx, y: y + dy + 4, 'text-anchor': 'middle', class: 'compass' }, name);
   }
+  body += text({ x: frame.width - 4, y: frame.height - 4, 'text-anchor': 'end', class: 'tick', fill: MUTED }, 'elevation (deg), azimuth (deg)');
+  return body;
+}
+
+function skyTrack(p: SkyProjection, track: SkyTrack): string {
+  let body = '';
   const n = Math.min(track.azimuthDeg.length, track.elevationDeg.length);
   if (n > 0) {
     const idx = Array.from({ length: n }, (_, k) => k).filter((k) => Number.isFinite(track.azimuthDeg[k]) && Number.isFinite(track.elevationDeg[k]));
@@ -91,8 +117,7 @@ export function skyPlot(title: string, track: SkyTrack, mask: [number, number][]
       body += text({ x: lx + 5, y: ly - 5, class: 'direct-label' }, 'LOS');
     }
   }
-  body += text({ x: frame.width - 4, y: frame.height - 4, 'text-anchor': 'end', class: 'tick', fill: MUTED }, 'elevation (deg), azimuth (deg)');
-  return svgRoot(frame, title, body, 'chart sky');
+  return body;
 }
 
 /** Insert points every ≤ 6° of azimuth (chord sag at the rim under 0.2 % of the radius) so straight chords become arcs on the polar plot; close the loop at 360°. */

@@ -18,6 +18,13 @@ export interface PassSeries {
   cases: { weather: string; marginDB: number[]; ebN0DB: number[] }[];
 }
 
+/** Lowest/highest margin per elevation bin (bin centre in deg) for one link and weather case. */
+export interface LinkEnvelope {
+  link: string;
+  weather: string;
+  bins: { elevationDeg: number; minDB: number; maxDB: number }[];
+}
+
 export interface ReportInput {
   summary: RunSummary;
   passes: PassLinkSummary[];
@@ -31,6 +38,18 @@ export interface ReportInput {
   maskFindings?: MaskFinding[];
   rateTrade?: RateTradePoint[];
   generatedNote?: string;
+  /**
+   * Margin against elevation over every pass, per link and weather case
+   * (e.g. accumulated by the pipeline from every step). Absent: pooled from
+   * `series` (the passes that have one).
+   */
+  envelopes?: LinkEnvelope[];
+  /**
+   * Pass-link sections drawn in detail (charts, sky plot), the first in time
+   * order (AOS, station, link); default REPORT_MAX_PASS_SECTIONS (300). Every
+   * pass stays in the pass table.
+   */
+  maxPassSections?: number;
   /** Samples drawn per pass chart line (default 150; a 520 px chart shows no more). */
   maxChartPoints?: number;
   /** Report title (default: the scenario name). */
