@@ -75,7 +75,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   if (workers <= 1) {
     const result = await runPipeline({
       scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections, maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress,
-      onStep: writer && fmt ? (e) => writer.write(fmt.row(e)) : undefined,
+      onStep: writer && fmt ? (e) => writer.writeRow(fmt, e) : undefined,
     });
     if (writer) await writer.close();
     return result;

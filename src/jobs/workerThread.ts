@@ -98,9 +98,10 @@ function main(): void {
             collectSeries: init.collectSeries,
             seriesMaxPoints: init.seriesMaxPoints,
             onStep: fmt ? (e) => {
-              const row = fmt.row(e);
-              if (off + 3 * row.length > buf.length) { writeSync(fd, buf, 0, off); off = 0; }
-              off += buf.write(row, off, fmt.ascii ? 'latin1' : 'utf8');
+              const need = fmt.rowBytesBound(e);
+              if (off + need > buf.length) { writeSync(fd, buf, 0, off); off = 0; }
+              if (need > buf.length) { writeSync(fd, Buffer.from(fmt.row(e), 'utf8')); return; }
+              off = fmt.rowInto(e, buf, off);
             } : undefined,
             onPassDone: (d) => {
               doneS += d;

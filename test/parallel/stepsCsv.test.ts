@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { runPipeline, type StepEvent } from '../../src/analysis/pipeline.js';
 import { copyStepBudget } from '../../src/budget/columns.js';
 import { stepColumns, stepRow } from '../../src/jobs/outputs.js';
-import { createStepsCsvFormatter, csvField, fixedDecimal, isoUtcMillis } from '../../src/jobs/workerStepsCsv.js';
+import { createStepsCsvFormatter, csvField, fixedDecimal, isoUtcMillis, putFixed, putIso } from '../../src/jobs/workerStepsCsv.js';
 import { formatIsoUtc } from '../../src/orbit/time.js';
 import { csvText, fmt, type CsvCell } from '../../src/output/csv.js';
 import { smallScenario } from './scenario.js';
@@ -33,9 +33,13 @@ describe('fixedDecimal equals fmt (toFixed)', () => {
       123.4565, 999.9995, 999999.9995, 1e6 - 0.0005, 999_999.9994, 1e9, 1e9 - 0.5, 4.35, 0.045, -1e-12, 1e21, -1e21,
       NaN, Infinity, -Infinity, Number.MAX_VALUE, Number.MIN_VALUE, 2 ** 53, -(2 ** 31)];
     for (const v of edge) for (const d of [0, 1, 2, 3]) expect(fixedDecimal(v, d), `${v} to ${d}`).toBe(fmt(v, d));
+    // The byte writer (putFixed) writes the same characters.
+    const b = new Uint8Array(64);
+    for (const v of edge) for (const d of [0, 1, 2, 3]) expect(Buffer.from(b.subarray(0, putFixed(b, 0, v, d))).toString('latin1'), `${v} to ${d}`).toBe(fmt(v, d));
   });
   it('on 400 000 random values over the ranges steps.csv holds', () => {
     const r = rng(20261121);
+    const buf = new Uint8Array(64);
     let mismatches = 0;
     for (let i = 0; i < 100_000; i++) {
       const mag = 10 ** (r() * 12 - 4); // 1e-4 .. 1e8
@@ -45,6 +49,7 @@ describe('fixedDecimal equals fmt (toFixed)', () => {
       for (const d of [0, 1, 2, 3]) {
         if (fixedDecimal(v, d) !== fmt(v, d)) mismatches++;
         if (fixedDecimal(grid, d) !== fmt(grid, d)) mismatches++;
+        if (Buffer.from(buf.subarray(0, putFixed(buf, 0, grid, d))).toString('latin1') !== fmt(grid, d)) mismatches++;
       }
     }
     expect(mismatches).toBe(0);
@@ -54,12 +59,18 @@ describe('fixedDecimal equals fmt (toFixed)', () => {
 describe('isoUtcMillis equals formatIsoUtc (Date.toISOString)', () => {
   it('on rounding to the next second, minute, day and year, and on random instants', () => {
     const edge = [0, 59.9996, 59.9994, 86_399.9995, 86_399.9994, 1_798_761_599.9996, 1_795_305_600, -0.0004, -86_400.5, 951_782_400.25];
-    for (const t of edge) expect(isoUtcMillis(t), String(t)).toBe(formatIsoUtc(t));
+    const b = new Uint8Array(32);
+    for (const t of edge) {
+      expect(isoUtcMillis(t), String(t)).toBe(formatIsoUtc(t));
+      expect(Buffer.from(b.subarray(0, putIso(b, 0, t))).toString('latin1'), String(t)).toBe(formatIsoUtc(t));
+    }
     const r = rng(7);
     for (let i = 0; i < 50_000; i++) {
       const t = 1.6e9 + r() * 4e8 + (r() < 0.5 ? Math.round(r() * 1000) / 1000 : r());
       const a = isoUtcMillis(t);
       if (a !== formatIsoUtc(t)) expect(a, String(t)).toBe(formatIsoUtc(t));
+      const bytes = Buffer.from(b.subarray(0, putIso(b, 0, t))).toString('latin1');
+      if (bytes !== a) expect(bytes, String(t)).toBe(a);
     }
   });
 });
@@ -94,5 +105,15 @@ describe('steps.csv rows', () => {
     const ours = fmtr.header + all.map((e) => fmtr.row(e)).join('');
     expect(ours.length).toBe(reference.length);
     expect(ours).toBe(reference);
+    // The byte path (rowInto, what the run writes): the same UTF-8 bytes, each row within its bound.
+    const buf = Buffer.alloc(Buffer.byteLength(reference) + 1024);
+    let off = buf.write(fmtr.header, 0, 'utf8');
+    for (const e of all) {
+      const before = off;
+      off = fmtr.rowInto(e, buf, off);
+      expect(off - before).toBeLessThanOrEqual(fmtr.rowBytesBound(e));
+    }
+    expect(off).toBe(Buffer.byteLength(reference));
+    expect(buf.subarray(0, off).equals(Buffer.from(reference, 'utf8'))).toBe(true);
   });
 });
