@@ -50,7 +50,7 @@ import { chooseNetworkStation, type NetworkCandidate } from './network.js';
 import { createPassAccumulator, type PassAccumulator } from './passAccumulator.js';
 import { createRateHistogram, type RateHistogram, type RateHistogramState } from './rateHistogram.js';
 import type { DailyRow, PassLinkSummary } from './types.js';
-import { judgePass } from './verdict.js';
+import { internVerdictSentence, judgePass } from './verdict.js';
 
 /** One evaluated step handed to the sink; the objects are reused: copy what you keep. */
 export interface StepEvent {
@@ -646,7 +646,13 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
     add(part) {
       if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
       next++;
-      for (const p of part.passLinks) result.passLinks.push(p);
+      for (const p of part.passLinks) {
+        // Summaries from a worker arrive as structured clones, each with its own copy of the
+        // rule sentence; point them back at the one shared copy (a year of passes otherwise
+        // holds tens of MB of identical strings).
+        for (const c of p.cases) c.verdictRule = internVerdictSentence(c.verdictRule);
+        result.passLinks.push(p);
+      }
       for (const s of part.series) result.series.push(s);
       part.daily.forEach((d, i) => daily[i].mergeState(d));
       part.mask.forEach((m, i) => hists[i].mask.mergeState(m));

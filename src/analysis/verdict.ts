@@ -22,23 +22,49 @@ function fmt(x: number): string {
   return Number.isInteger(x) ? String(x) : x.toFixed(1);
 }
 
-/** Verdict and the sentence that explains it, with the numbers used. */
+/**
+ * The three rule sentences of a rule, built once per rule and shared by every
+ * pass: a year of passes keeps one copy of each sentence, not one per pass
+ * (the pass's own numbers are in its usable_duration_s and duration_s columns).
+ */
+const sentences = new Map<string, Record<Verdict, string>>();
+
+export function verdictSentences(rule: VerdictRule = DEFAULT_VERDICT_RULE): Readonly<Record<Verdict, string>> {
+  const key = `${rule.minUsableS}|${rule.minUsableFraction}`;
+  let t = sentences.get(key);
+  if (!t) {
+    const need = `usable time ≥ ${fmt(rule.minUsableS)} s and ≥ ${fmt(rule.minUsableFraction * 100)} % of the time above the mask`;
+    t = {
+      usable: `usable: ${need}`,
+      marginal: `marginal: some steps met the required margin, but not ${need}`,
+      unusable: 'unusable: no step met the required margin',
+    };
+    sentences.set(key, t);
+  }
+  return t;
+}
+
+/** The shared copy of a rule sentence equal to `text` (or `text` itself when no rule made it). */
+export function internVerdictSentence(text: string): string {
+  for (const t of sentences.values()) {
+    if (t.usable === text) return t.usable;
+    if (t.marginal === text) return t.marginal;
+    if (t.unusable === text) return t.unusable;
+  }
+  return text;
+}
+
+/** Verdict and the (shared) sentence of the rule that produced it. */
 export function judgePass(
   usableS: number,
   aboveMaskS: number,
   anyUsable: boolean,
   rule: VerdictRule = DEFAULT_VERDICT_RULE,
 ): { verdict: Verdict; verdictRule: string } {
-  const pct = fmt(rule.minUsableFraction * 100);
-  const need = `needs ≥ ${fmt(rule.minUsableS)} s and ≥ ${pct} % of the ${fmt(aboveMaskS)} s above the mask`;
-  if (!anyUsable) {
-    return { verdict: 'unusable', verdictRule: `unusable: no step met the required margin (usable ${need})` };
-  }
+  const t = verdictSentences(rule);
+  if (!anyUsable) return { verdict: 'unusable', verdictRule: t.unusable };
   const ok = usableS >= rule.minUsableS && usableS >= rule.minUsableFraction * aboveMaskS;
-  if (ok) {
-    return { verdict: 'usable', verdictRule: `usable: ${fmt(usableS)} s met the required margin; usable ${need}` };
-  }
-  return { verdict: 'marginal', verdictRule: `marginal: only ${fmt(usableS)} s met the required margin; usable ${need}` };
+  return ok ? { verdict: 'usable', verdictRule: t.usable } : { verdict: 'marginal', verdictRule: t.marginal };
 }
 
 /** Check a user-given rule; `where` names its origin (a scenario path or a flag). */

@@ -22,9 +22,11 @@ describe('judgePass at the thresholds', () => {
     expect(r.verdictRule.startsWith(`${verdict}:`)).toBe(true);
   });
 
-  it('states the rule with its numbers and follows custom thresholds', () => {
-    expect(judgePass(61, 100, true).verdictRule).toBe(
-      'usable: 61 s met the required margin; usable needs ≥ 60 s and ≥ 50 % of the 100 s above the mask');
+  it('states the rule with its thresholds (one shared sentence per rule) and follows custom thresholds', () => {
+    expect(judgePass(61, 100, true).verdictRule).toBe('usable: usable time ≥ 60 s and ≥ 50 % of the time above the mask');
+    expect(judgePass(30, 100, true).verdictRule).toBe('marginal: some steps met the required margin, but not usable time ≥ 60 s and ≥ 50 % of the time above the mask');
+    expect(judgePass(0, 100, false).verdictRule).toBe('unusable: no step met the required margin');
+    expect(judgePass(61, 100, true).verdictRule).toBe(judgePass(400, 500, true).verdictRule); // shared, not per pass
     const strict = { minUsableFraction: 0.8, minUsableS: 30 };
     expect(judgePass(79, 100, true, strict).verdict).toBe('marginal');
     expect(judgePass(80, 100, true, strict).verdict).toBe('usable');
