@@ -37,14 +37,19 @@ export interface MaskHistogram {
   readonly timeS: Float64Array;
   readonly usableS: Float64Array;
   readonly volumeBits: Float64Array;
-  add(elevationDeg: number, dtS: number, usable: boolean, rateBps: number): void;
+  /**
+   * Unusable time while the ground mount was rate-limited (keyhole near zenith, s per bin).
+   * No elevation mask can remove it, so the finder leaves it out of `timeS` and reports it.
+   */
+  readonly keyholeS: Float64Array;
+  add(elevationDeg: number, dtS: number, usable: boolean, rateBps: number, mountLimited?: boolean): void;
   /** The bin arrays (shared, not copied): what a chunk of a parallel run hands back. */
   exportState(): MaskHistogramState;
   /** Add another histogram's bins (same binDeg), bin by bin. */
   mergeState(state: MaskHistogramState): void;
 }
 
-export interface MaskHistogramState { binDeg: number; timeS: Float64Array; usableS: Float64Array; volumeBits: Float64Array }
+export interface MaskHistogramState { binDeg: number; timeS: Float64Array; usableS: Float64Array; volumeBits: Float64Array; keyholeS: Float64Array }
 
 export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHistogram {
   const binDeg = options.binDeg ?? 0.1;
@@ -56,6 +61,7 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
   const timeS = new Float64Array(bins);
   const usableS = new Float64Array(bins);
   const volumeBits = new Float64Array(bins);
+  const keyholeS = new Float64Array(bins);
   const binOf = (e: number) => {
     let k = Math.floor((e - MIN_DEG) / binDeg);
     // Rounding of the division can land one bin off; settle it against the same edges we report.
@@ -73,9 +79,14 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
     timeS,
     usableS,
     volumeBits,
-    add(elevationDeg, dtS, usable, rateBps) {
+    keyholeS,
+    add(elevationDeg, dtS, usable, rateBps, mountLimited = false) {
       if (Number.isNaN(elevationDeg) || !(dtS > 0)) return;
       const k = binOf(elevationDeg);
+      if (mountLimited && !usable) {
+        keyholeS[k] += dtS;
+        return;
+      }
       timeS[k] += dtS;
       if (usable) {
         usableS[k] += dtS;
@@ -83,7 +94,7 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
       }
     },
     exportState() {
-      return { binDeg, timeS, usableS, volumeBits };
+      return { binDeg, timeS, usableS, volumeBits, keyholeS };
     },
     mergeState(st) {
       if (st.binDeg !== binDeg || st.timeS.length !== bins) throw new Error(`mask histogram: cannot merge ${st.binDeg}° bins into ${binDeg}° bins`);
@@ -91,6 +102,7 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
         timeS[k] += st.timeS[k];
         usableS[k] += st.usableS[k];
         volumeBits[k] += st.volumeBits[k];
+        keyholeS[k] += st.keyholeS[k];
       }
     },
   };
@@ -130,7 +142,9 @@ export function findMask(hist: MaskHistogram, fraction = 1, options: { floorDeg?
     if (total > 0 && ok) found = k;
   }
   const maskDeg = found < 0 ? null : hist.edgeDeg(found);
-  return { station: hist.station, link: hist.link, weather: hist.weather, fraction, maskDeg };
+  let keyhole = 0;
+  for (let k = Math.max(found, 0); k < hist.bins; k++) keyhole += hist.keyholeS[k];
+  return { station: hist.station, link: hist.link, weather: hist.weather, fraction, maskDeg, mountLimitedExcludedS: keyhole };
 }
 
 /** Default masks of the trade: 0° to 30° in 1° steps. */

@@ -500,7 +500,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           for (let ci = 0; ci < nCases; ci++) {
             const c = step.cases[ci];
             lr.daily[ci].add(t, stepS, c);
-            lr.mask[ci].add(el, stepS, c.usable, c.information_rate_bps);
+            lr.mask[ci].add(el, stepS, c.usable, c.information_rate_bps, step.mount_limited);
             const rh = lr.rate[ci];
             if (rh) rh.add(c.c_over_n0_dbhz, stepS);
           }

@@ -83,6 +83,11 @@ export interface MaskFinding {
   fraction: number;
   /** null when no mask up to 90° meets it. */
   maskDeg: number | null;
+  /**
+   * Unusable time at or above the mask (s) left out because the ground mount was
+   * rate-limited there (keyhole near zenith): no elevation mask removes it.
+   */
+  mountLimitedExcludedS?: number;
 }
 
 export interface RateTradePoint {

@@ -45,6 +45,7 @@ export async function maskScenario(scenario: ResolvedScenario, opts: FinderOptio
     ])));
     out.writeFile('mask.json', `${JSON.stringify({ scenario: scenario.name, fraction, findings: findings.map((f) => ({
       station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, mask_deg: f.maskDeg,
+      mount_limited_excluded_s: f.mountLimitedExcludedS ?? 0,
     })) }, null, 2)}\n`);
     return { outDir, files: out.commit(), trade, findings };
   } catch (err) {
@@ -55,10 +56,12 @@ export async function maskScenario(scenario: ResolvedScenario, opts: FinderOptio
 
 export function formatMaskResult(r: MaskResult): string {
   const lines = ['lowest elevation mask at which the steps above it meet the required margin', ''];
-  const head = ['station', 'link', 'weather', 'fraction', 'mask_deg'];
-  const rows = r.findings.map((f) => [f.station, f.link, f.weather, f.fraction.toFixed(2), f.maskDeg === null ? 'none ≤ 90' : f.maskDeg.toFixed(1)]);
-  lines.push(...table(head, rows, [false, false, false, true, true]));
-  lines.push('', '(mask never below the station horizon mask; per station, without network arbitration)');
+  const head = ['station', 'link', 'weather', 'fraction', 'mask_deg', 'keyhole_s_excluded'];
+  const rows = r.findings.map((f) => [f.station, f.link, f.weather, f.fraction.toFixed(2), f.maskDeg === null ? 'none ≤ 90' : f.maskDeg.toFixed(1), String(Math.round(f.mountLimitedExcludedS ?? 0))]);
+  lines.push(...table(head, rows, [false, false, false, true, true, true]));
+  lines.push('', 'Never below the station horizon mask; per station, without network arbitration.');
+  lines.push('keyhole_s_excluded: unusable seconds above the mask while the mount was rate-limited (near zenith);');
+  lines.push('no elevation mask removes them, so the finder leaves them out (they stay in steps.csv as mount_limited).');
   lines.push(`files in ${r.outDir}:`, ...r.files.map((f) => `  ${f}`));
   return lines.join('\n');
 }

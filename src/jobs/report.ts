@@ -122,8 +122,10 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
     }));
   }
   if (existsSync(join(dir, 'mask.json'))) {
-    const m = readJson<{ findings: { station: string; link: string; weather: string; fraction: number; mask_deg: number | null }[] }>(join(dir, 'mask.json'));
-    maskFindings = m.findings.map((f) => ({ station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, maskDeg: f.mask_deg }));
+    const m = readJson<{ findings: { station: string; link: string; weather: string; fraction: number; mask_deg: number | null; mount_limited_excluded_s?: number }[] }>(join(dir, 'mask.json'));
+    maskFindings = m.findings.map((f) => ({
+      station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, maskDeg: f.mask_deg, mountLimitedExcludedS: f.mount_limited_excluded_s,
+    }));
   }
   if (existsSync(join(dir, 'rate.csv'))) {
     rateTrade = readCsv(join(dir, 'rate.csv')).map((r) => ({

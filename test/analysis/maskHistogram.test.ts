@@ -79,6 +79,23 @@ describe('findMask', () => {
     expect(findMask(createMaskHistogram()).maskDeg).toBeNull();
   });
 
+  it('leaves out unusable mount-limited (keyhole) steps and reports their time above the mask', () => {
+    const h = createMaskHistogram();
+    h.add(4.05, 10, false, 0); // low elevation, does not close
+    h.add(20.05, 100, true, 1e6);
+    h.add(87.05, 7, false, 0, true); // near zenith, mount lagging: unusable, no mask fixes it
+    h.add(88.05, 3, true, 1e6, true); // mount-limited but still usable: counts as usual
+    const f = findMask(h, 1);
+    expect(f.maskDeg).toBeCloseTo(4.1, 9);
+    expect(f.mountLimitedExcludedS).toBe(7);
+    // without the flag the same steps force the mask above 87° (only the 88° step left above it)
+    const g = createMaskHistogram();
+    g.add(4.05, 10, false, 0); g.add(20.05, 100, true, 1e6); g.add(87.05, 7, false, 0); g.add(88.05, 3, true, 1e6);
+    expect(findMask(g, 1).maskDeg).toBeCloseTo(87.1, 9);
+    // volumes are untouched by the exclusion
+    expect(maskTrade(h, 1, [0])[0].dailyVolumeBits).toBe(103e6);
+  });
+
   it('rejects a fraction or bin size out of range', () => {
     expect(() => findMask(h, 0)).toThrow(InputError);
     expect(() => findMask(h, 1.2)).toThrow(/fraction: 1.2 is out of range/);
