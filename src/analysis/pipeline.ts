@@ -49,7 +49,7 @@ import { createMaskHistogram, type MaskHistogram, type MaskHistogramState } from
 import { chooseNetworkStation, type NetworkCandidate } from './network.js';
 import { createPassAccumulator, type PassAccumulator } from './passAccumulator.js';
 import { createRateHistogram, type RateHistogram, type RateHistogramState } from './rateHistogram.js';
-import type { DailyRow, PassLinkSummary } from './types.js';
+import type { DailyRow, PassLinkSummary, PassSeries } from './types.js';
 import { internVerdictSentence, judgePass } from './verdict.js';
 
 /** One evaluated step handed to the sink; the objects are reused: copy what you keep. */
@@ -63,14 +63,7 @@ export interface StepEvent {
 }
 
 /** Decimated series of one pass and link, for the report (at most `seriesMaxPoints` points). */
-export interface PassSeriesData {
-  passId: string;
-  link: string;
-  timeS: number[];
-  azimuthDeg: number[];
-  elevationDeg: number[];
-  cases: { weather: string; marginDB: number[]; ebN0DB: number[] }[];
-}
+export type PassSeriesData = PassSeries;
 
 export interface PipelineOptions {
   scenario: ResolvedScenario;

@@ -134,3 +134,14 @@ export interface RunSummary {
   /** Horizon mask per station as an (azimuth, elevation) polyline (deg), for the report. */
   horizonMasks?: Record<string, [number, number][]>;
 }
+
+/** Decimated time series of one pass and link, for the report (bounded number of points). */
+export interface PassSeries {
+  passId: string;
+  link: string;
+  /** Unix seconds UTC. */
+  timeS: number[];
+  azimuthDeg: number[];
+  elevationDeg: number[];
+  cases: { weather: string; marginDB: number[]; ebN0DB: number[] }[];
+}

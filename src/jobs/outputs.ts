@@ -22,7 +22,7 @@ import type { ResolvedScenario } from '../scenario/types.js';
 export const CAUTIONS: readonly string[] = STANDING_CAUTIONS;
 
 /** Decimals per numeric column (by unit suffix), so files stay readable and deterministic. */
-function decimalsFor(column: string): number {
+export function decimalsFor(column: string): number {
   if (column.endsWith('_bps')) return 0;
   if (column === 'doppler_hz') return 1;
   if (column.endsWith('_hz_s')) return 2;
@@ -30,8 +30,9 @@ function decimalsFor(column: string): number {
   return 3;
 }
 
-const STEP_FIELDS = STEP_COLUMNS.filter((c) => c !== 'time_s');
-const CASE_FIELDS = CASE_COLUMNS.filter((c) => c !== 'weather');
+/** steps.csv carries time_utc instead of time_s, and the case name in the column suffix instead of a weather column. */
+export const STEP_FIELDS = STEP_COLUMNS.filter((c) => c !== 'time_s');
+export const CASE_FIELDS = CASE_COLUMNS.filter((c) => c !== 'weather');
 
 /** steps.csv: one row per (time, station, link); per-case fields suffixed with the case name. */
 export function stepColumns(cases: readonly WeatherCase[]): string[] {

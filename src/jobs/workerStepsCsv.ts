@@ -27,12 +27,11 @@
  */
 import { once } from 'node:events';
 import type { Writable } from 'node:stream';
-import { CASE_COLUMNS, STEP_COLUMNS } from '../budget/columns.js';
 import { createCaseBudget, createStepBudget } from '../budget/engine.js';
 import type { CaseBudget, StepBudget, WeatherCase } from '../budget/types.js';
 import type { StepEvent } from '../analysis/pipeline.js';
 import { fmt } from '../output/csv.js';
-import { stepColumns } from './outputs.js';
+import { CASE_FIELDS, decimalsFor, STEP_FIELDS, stepColumns } from './outputs.js';
 
 const POW10 = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
 /** FRAC[d][r] = "." + r with d digits. */
@@ -97,16 +96,6 @@ export function csvField(text: string): string {
   return NEEDS_QUOTES.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-function decimalsFor(column: string): number {
-  if (column.endsWith('_bps')) return 0;
-  if (column === 'doppler_hz') return 1;
-  if (column.endsWith('_hz_s')) return 2;
-  if (column.endsWith('_k')) return 2;
-  return 3;
-}
-
-const STEP_FIELDS = STEP_COLUMNS.filter((c) => c !== 'time_s');
-const CASE_FIELDS = CASE_COLUMNS.filter((c) => c !== 'weather');
 const STEP_DEC = STEP_FIELDS.map(decimalsFor);
 const CASE_DEC = CASE_FIELDS.map(decimalsFor);
 

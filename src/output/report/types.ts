@@ -4,19 +4,10 @@
  * output folder back into this shape.
  */
 import type {
-  DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradePoint, RunSummary,
+  DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, PassSeries, RateTradePoint, RunSummary,
 } from '../../analysis/types.js';
 
-/** Decimated time series of one pass and link (≤ ~300 points; longer series are thinned by the renderer). */
-export interface PassSeries {
-  passId: string;
-  link: string;
-  /** Unix seconds UTC. */
-  timeS: number[];
-  azimuthDeg: number[];
-  elevationDeg: number[];
-  cases: { weather: string; marginDB: number[]; ebN0DB: number[] }[];
-}
+export type { PassSeries } from '../../analysis/types.js';
 
 /** Lowest/highest margin per elevation bin (bin centre in deg) for one link and weather case. */
 export interface LinkEnvelope {
