@@ -192,7 +192,7 @@ export function runSummary(
     weatherCases: scenario.weatherCases.map((w) => w.name),
     networkPolicy: scenario.network.kind === 'priority'
       ? `priority order: ${scenario.network.order.join(' > ')}`
-      : 'best margin at each step',
+      : 'best link at each step (highest information rate, then margin)',
     totals: runTotals(daily),
     models: MODELS_USED,
     software: softwareVersions(),
