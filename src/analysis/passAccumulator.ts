@@ -15,19 +15,9 @@ import type { PassCaseSummary, PassLinkSummary } from './types.js';
 import { bestConstantMode, modeRatesBps, modeThresholdsDB } from './modes.js';
 import { checkVerdictRule, DEFAULT_VERDICT_RULE, judgePass, type VerdictRule } from './verdict.js';
 
-export interface PassInfo {
-  passId: string;
-  satellite: string;
-  station: string;
-  aosS: number;
-  tcaS: number;
-  losS: number;
-  maxElevationDeg: number;
-  /** Time above the mask (s): the verdict's reference. */
-  durationS: number;
-  clippedStart: boolean;
-  clippedEnd: boolean;
-}
+/** The pass a summary is about: the pass fields of PassLinkSummary (durationS, time above the mask, is the verdict's reference). */
+export type PassInfo = Pick<PassLinkSummary,
+  'passId' | 'satellite' | 'station' | 'aosS' | 'tcaS' | 'losS' | 'maxElevationDeg' | 'durationS' | 'clippedStart' | 'clippedEnd'>;
 
 export interface PassAccumulatorOptions {
   link: LinkSpec;
