@@ -34,60 +34,23 @@ import { fmt } from '../output/csv.js';
 import { CASE_FIELDS, decimalsFor, STEP_FIELDS, stepColumns } from './outputs.js';
 
 const POW10 = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
-/** FRAC[d][r] = "." + r with d digits. */
-const FRAC: string[][] = POW10.map((p, d) => Array.from({ length: d <= 3 ? p : 0 }, (_, r) => (d === 0 ? '' : `.${String(r).padStart(d, '0')}`)));
-
-const INT = Array.from({ length: 1000 }, (_, i) => String(i));
-const PAD3_INT = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
-/** Decimal digits of an integer 0 ≤ n < 1e9 from two lookups at most (no number-to-string conversion). */
-function intText(n: number): string {
-  if (n < 1000) return INT[n];
-  const lo = n % 1000;
-  const hi = (n - lo) / 1000;
-  if (hi < 1000) return INT[hi] + PAD3_INT[lo];
-  const mid = hi % 1000;
-  return INT[(hi - mid) / 1000] + PAD3_INT[mid] + PAD3_INT[lo];
-}
+/**
+ * String forms of the byte writers below (putFixed, putIso): the rare row too
+ * long for a piece buffer and the tests use them. One implementation each, so
+ * the string and byte paths cannot drift apart.
+ */
+const SCRATCH = new Uint8Array(64);
+const latin1 = (n: number) => Buffer.from(SCRATCH.buffer, SCRATCH.byteOffset, n).toString('latin1');
 
 /** `fmt(value, decimals)` (toFixed; '' for non-finite; no "-0"), fast for decimals 0–3. */
 export function fixedDecimal(value: number, decimals: number): string {
-  if (decimals <= 3 && value === value && value !== Infinity && value !== -Infinity) {
-    const neg = value < 0;
-    const x = (neg ? -value : value) * POW10[decimals];
-    if (x < 1e9) {
-      const fl = Math.floor(x);
-      const fr = x - fl;
-      if (fr < 0.499999 || fr > 0.500001) {
-        const n = fr < 0.5 ? fl : fl + 1;
-        const p = POW10[decimals];
-        const r = n % p;
-        const s = intText((n - r) / p) + FRAC[decimals][r];
-        return neg && n !== 0 ? `-${s}` : s;
-      }
-    }
-  }
-  return fmt(value, decimals);
+  const n = putFixed(SCRATCH, 0, value, decimals);
+  return latin1(n);
 }
-
-const PAD2 = Array.from({ length: 60 }, (_, i) => String(i).padStart(2, '0'));
-const PAD3 = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
-let cachedDay = NaN;
-let cachedPrefix = '';
 
 /** formatIsoUtc(t): ISO-8601 UTC with milliseconds, the date part cached per UTC day. */
 export function isoUtcMillis(timeS: number): string {
-  const ms = Math.round(timeS * 1000);
-  const day = Math.floor(ms / 86_400_000);
-  if (day !== cachedDay) {
-    const iso = new Date(day * 86_400_000).toISOString();
-    cachedPrefix = iso.slice(0, iso.indexOf('T') + 1);
-    cachedDay = day;
-  }
-  let rem = ms - day * 86_400_000;
-  const h = Math.floor(rem / 3_600_000); rem -= h * 3_600_000;
-  const m = Math.floor(rem / 60_000); rem -= m * 60_000;
-  const s = Math.floor(rem / 1000);
-  return `${cachedPrefix}${PAD2[h]}:${PAD2[m]}:${PAD2[s]}.${PAD3[rem - s * 1000]}Z`;
+  return latin1(putIso(SCRATCH, 0, timeS));
 }
 
 const NEEDS_QUOTES = /[",\r\n]/;
