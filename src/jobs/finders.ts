@@ -11,7 +11,7 @@ import { bestRate, rateTrade } from '../analysis/rateHistogram.js';
 import { bitsToMegabytes } from '../analysis/units.js';
 import type { MaskFinding, MaskTradePoint, RateTradePoint } from '../analysis/types.js';
 import { InputError } from '../errors.js';
-import { AtomicOutputDir } from '../output/atomic.js';
+import { writeFilesAtomic } from '../output/atomic.js';
 import { csvText, fmt } from '../output/csv.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { defaultOutDir, maskResults } from './run.js';
@@ -38,20 +38,16 @@ export async function maskScenario(scenario: ResolvedScenario, opts: FinderOptio
   const outDir = defaultOutDir(scenario, opts.outDir);
   const p = await pipelineOnly({ ...scenario, maskFraction: fraction }, opts.quiet === true);
   const { trade, findings } = maskResults({ ...scenario, maskFraction: fraction }, p);
-  const out = new AtomicOutputDir(outDir);
-  try {
-    out.writeFile('mask.csv', await csvText(MASK_COLUMNS, trade.map((t) => [
+  const files = writeFilesAtomic(outDir, [
+    ['mask.csv', await csvText(MASK_COLUMNS, trade.map((t) => [
       t.station, t.link, t.weather, t.maskDeg, fmt(bitsToMegabytes(t.dailyVolumeBits), 6), fmt(t.usableMinutesPerDay, 3),
-    ])));
-    out.writeFile('mask.json', `${JSON.stringify({ scenario: scenario.name, fraction, findings: findings.map((f) => ({
+    ]))],
+    ['mask.json', `${JSON.stringify({ scenario: scenario.name, fraction, findings: findings.map((f) => ({
       station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, mask_deg: f.maskDeg,
       mount_limited_excluded_s: f.mountLimitedExcludedS ?? 0,
-    })) }, null, 2)}\n`);
-    return { outDir, files: out.commit(), trade, findings };
-  } catch (err) {
-    out.discard();
-    throw err;
-  }
+    })) }, null, 2)}\n`],
+  ]);
+  return { outDir, files, trade, findings };
 }
 
 export function formatMaskResult(r: MaskResult): string {
@@ -92,16 +88,12 @@ export async function rateScenario(scenario: ResolvedScenario, opts: FinderOptio
     const b = bestRate(pts);
     if (b) best.push(b);
   }
-  const out = new AtomicOutputDir(outDir);
-  try {
-    out.writeFile('rate.csv', await csvText(RATE_COLUMNS, trade.map((t) => [
+  const files = writeFilesAtomic(outDir, [
+    ['rate.csv', await csvText(RATE_COLUMNS, trade.map((t) => [
       t.station, t.link, t.weather, t.bitRateBps, fmt(bitsToMegabytes(t.dailyVolumeBits), 6), fmt(t.usableMinutesPerDay, 3),
-    ])));
-    return { outDir, files: out.commit(), trade, best };
-  } catch (err) {
-    out.discard();
-    throw err;
-  }
+    ]))],
+  ]);
+  return { outDir, files, trade, best };
 }
 
 export function formatRateResult(r: RateResult): string {

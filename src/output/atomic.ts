@@ -51,6 +51,21 @@ export class AtomicOutputDir {
   }
 }
 
+/**
+ * Write a few small files into `targetDir` as one atomic set (staged, then
+ * renamed in); returns their final paths. Nothing is left behind on error.
+ */
+export function writeFilesAtomic(targetDir: string, files: ReadonlyArray<readonly [name: string, data: string | Uint8Array]>): string[] {
+  const out = new AtomicOutputDir(targetDir);
+  try {
+    for (const [name, data] of files) out.writeFile(name, data);
+    return out.commit();
+  } catch (err) {
+    out.discard();
+    throw err;
+  }
+}
+
 /** Write one file atomically: temporary name in the same folder, then rename. */
 export function writeFileAtomic(path: string, data: string | Uint8Array): void {
   const abs = resolve(path);
