@@ -11,8 +11,10 @@ import type { DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradeP
 import { megabytesToBits } from '../analysis/units.js';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../output/atomic.js';
-import { renderReport } from '../output/report/index.js';
-import type { PassSeries, ReportInput } from '../output/report/types.js';
+import { renderReport, REPORT_MAX_PASS_SECTIONS } from '../output/report/index.js';
+import type { LinkEnvelope, PassSeries, ReportInput } from '../output/report/types.js';
+import { envelopeBin, ENVELOPE_BINS, type StationLinkEnvelope } from '../analysis/pipeline.js';
+import { linkEnvelopes } from './run.js';
 
 const SERIES_MAX_POINTS = 120;
 
@@ -78,29 +80,58 @@ export function dailyFromCsv(rows: Record<string, string>[]): DailyRow[] {
   }));
 }
 
-/** Decimated per-pass series from steps.csv, streamed (never held whole). */
-async function seriesFromSteps(file: string, passes: PassLinkSummary[], weather: string[]): Promise<PassSeries[]> {
+/**
+ * From steps.csv, streamed (never held whole): decimated series for the pass
+ * sections the report draws (the first REPORT_MAX_PASS_SECTIONS pass-links in
+ * the report's order, which passes.json already has), and the margin envelope
+ * over every step — the same bounded data `passbudget run` hands the report.
+ */
+async function fromSteps(file: string, passes: PassLinkSummary[], weather: string[]): Promise<{ series: PassSeries[]; envelopes: LinkEnvelope[] }> {
   const every = new Map<string, number>();
-  for (const p of passes) every.set(`${p.passId}|${p.link}`, Math.max(1, Math.ceil(p.steps / SERIES_MAX_POINTS)));
+  for (const p of passes.slice(0, REPORT_MAX_PASS_SECTIONS)) every.set(`${p.passId}|${p.link}`, Math.max(1, Math.ceil(p.steps / SERIES_MAX_POINTS)));
   const series = new Map<string, PassSeries & { n: number }>();
+  const envelopes: StationLinkEnvelope[] = [];
+  const envOf = new Map<string, StationLinkEnvelope[]>();
   const parser = createReadStream(file).pipe(parse({ columns: true }));
   for await (const r of parser as AsyncIterable<Record<string, string>>) {
+    const el = num(r.elevation_deg);
+    const linkKey = `${r.station}|${r.link}`;
+    let envs = envOf.get(linkKey);
+    if (!envs) {
+      envs = weather.map((w) => ({
+        station: r.station, link: r.link, weather: w,
+        minDB: new Float64Array(ENVELOPE_BINS).fill(Infinity), maxDB: new Float64Array(ENVELOPE_BINS).fill(-Infinity),
+      }));
+      envOf.set(linkKey, envs);
+      envelopes.push(...envs);
+    }
+    const bin = envelopeBin(el);
+    if (bin >= 0) {
+      weather.forEach((w, i) => {
+        const m = num(r[`margin_db_${w}`]);
+        if (!Number.isFinite(m)) return;
+        if (m < envs![i].minDB[bin]) envs![i].minDB[bin] = m;
+        if (m > envs![i].maxDB[bin]) envs![i].maxDB[bin] = m;
+      });
+    }
     const key = `${r.pass_id}|${r.link}`;
+    const step = every.get(key);
+    if (step === undefined) continue;
     let s = series.get(key);
     if (!s) {
       s = { passId: r.pass_id, link: r.link, timeS: [], azimuthDeg: [], elevationDeg: [], cases: weather.map((w) => ({ weather: w, marginDB: [], ebN0DB: [] })), n: 0 };
       series.set(key, s);
     }
-    if (s.n++ % (every.get(key) ?? 1) !== 0) continue;
+    if (s.n++ % step !== 0) continue;
     s.timeS.push(Date.parse(r.time_utc) / 1000);
     s.azimuthDeg.push(num(r.azimuth_deg));
-    s.elevationDeg.push(num(r.elevation_deg));
+    s.elevationDeg.push(el);
     weather.forEach((w, i) => {
       s!.cases[i].marginDB.push(num(r[`margin_db_${w}`]));
       s!.cases[i].ebN0DB.push(num(r[`eb_over_n0_db_${w}`]));
     });
   }
-  return [...series.values()].map(({ n: _n, ...s }) => s);
+  return { series: [...series.values()].map(({ n: _n, ...s }) => s), envelopes: linkEnvelopes(envelopes) };
 }
 
 export async function loadReportInput(dirIn: string): Promise<ReportInput> {
@@ -111,7 +142,8 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
   const summary = readJson<RunSummary>(join(dir, 'summary.json'));
   const passes = passesFromJson(readJson<PassJson[]>(join(dir, 'passes.json')));
   const daily = dailyFromCsv(readCsv(join(dir, 'daily.csv')));
-  const series = existsSync(join(dir, 'steps.csv')) ? await seriesFromSteps(join(dir, 'steps.csv'), passes, summary.weatherCases) : [];
+  const steps = existsSync(join(dir, 'steps.csv')) ? await fromSteps(join(dir, 'steps.csv'), passes, summary.weatherCases) : null;
+  const series = steps?.series ?? [];
   let maskTrade: MaskTradePoint[] | undefined;
   let maskFindings: MaskFinding[] | undefined;
   let rateTrade: RateTradePoint[] | undefined;
@@ -138,6 +170,7 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
     requiredMarginDB: summary.requiredMarginDB ?? {},
     horizonMasks: summary.horizonMasks ?? {},
     maskTrade, maskFindings, rateTrade,
+    ...(steps && steps.envelopes.length > 0 ? { envelopes: steps.envelopes } : {}),
   };
 }
 
