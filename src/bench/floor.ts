@@ -36,7 +36,7 @@ export function floorInstants(scenario: ResolvedScenario): FloorInstants {
   for (const st of scenario.stations) {
     const times: number[] = [];
     const prop = recording(createPropagator(sat.elements), times);
-    const passes = findPasses({ propagator: prop, station: st.station, startS, endS });
+    const passes = findPasses({ propagator: prop, exactOrbit: true, station: st.station, startS, endS });
     const grid: number[] = [];
     for (const p of passes) {
       const kFirst = Math.ceil((p.aosS - startS) / stepS - 1e-9);

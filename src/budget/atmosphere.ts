@@ -27,7 +27,8 @@
  * 4 GHz (each an over-estimate: these terms grow with frequency there).
  */
 import {
-  cloudAttenuation, externalNoiseIsExtrapolated, externalNoiseTemperatureK, gasSlantAttenuation, gOverTDBK,
+  cloudAttenuation, externalNoiseIsExtrapolated, externalNoiseTemperatureK, gasSlantAttenuation, gasSlantFromZenith,
+  gasZenithAttenuation, gOverTDBK, type GasZenith,
   rainAttenuation, scintillationFade, skyNoiseTemperatureK, systemNoiseTemperatureK, totalAttenuation,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
@@ -61,6 +62,8 @@ export interface AtmosphereContext {
   rxFeedLossDB: number;
   /** Reused argument objects for the model calls (no allocation per evaluation). */
   gasArgs: Parameters<typeof gasSlantAttenuation>[0];
+  /** Zenith gas attenuation of gasArgs (elevation-independent), filled on first use. */
+  gasZenith?: GasZenith;
   rainArgs: Parameters<typeof rainAttenuation>[0];
   cloudArgs: Parameters<typeof cloudAttenuation>[0];
   cloudClearArgs: Parameters<typeof cloudAttenuation>[0];
@@ -171,7 +174,10 @@ export function createAtmosphereContext(
 export function atmosphereAt(ctx: AtmosphereContext, elevationDeg: number, out: Float64Array): Float64Array {
   const el = Math.min(90, Math.max(0, elevationDeg));
   ctx.gasArgs.elevationDeg = el;
-  const gas = gasSlantAttenuation(ctx.gasArgs);
+  // The zenith parts (line-by-line specific attenuation, equivalent heights) do not depend on
+  // elevation: computed once per context, then only the path factor per elevation.
+  ctx.gasZenith ??= gasZenithAttenuation(ctx.gasArgs);
+  const gas = gasSlantFromZenith(ctx.gasZenith, el);
   let cloudClear = 0;
   if (ctx.climate.clearSkyCloudLiquidWaterKgM2 > 0) {
     ctx.cloudClearArgs.elevationDeg = el;
@@ -316,4 +322,38 @@ export function interpolateTable(table: ElevationTable, elevationDeg: number, ou
   const v = table.values, a = lo * n, b = hi * n;
   for (let k = 0; k < n; k++) out[k] = v[a + k] + f * (v[b + k] - v[a + k]);
   return out;
+}
+
+/**
+ * The table interval of each elevation of a column (entries 0 … n−1), the same
+ * as interpolateTable finds (largest node ≤ the clamped elevation, and the
+ * fraction to the next), found by hunting from the previous entry's interval:
+ * a pass's elevations move a node or two per step. `lo[i]` is the node row
+ * offset (node index × terms per node), `hiOff[i]` that of the next node.
+ */
+export function tableIntervals(table: ElevationTable, elevationDeg: Float64Array, n: number, lo: Int32Array, hiOff: Int32Array, frac: Float64Array): void {
+  const xs = table.elevationsDeg;
+  const nt = table.caseCount * TERM_COUNT;
+  const last = xs.length - 1;
+  let j = 0;
+  for (let i = 0; i < n; i++) {
+    const e = elevationDeg[i];
+    const el = e <= xs[0] ? xs[0] : e >= xs[last] ? xs[last] : e;
+    if (last === 0) { lo[i] = 0; hiOff[i] = 0; frac[i] = 0; continue; }
+    // Interval [j, j+1] with xs[j] ≤ el < xs[j+1] (j = last − 1 at the top end), as the bisection finds.
+    while (j > 0 && xs[j] > el) j--;
+    while (j < last - 1 && xs[j + 1] <= el) j++;
+    const x0 = xs[j], x1 = xs[j + 1];
+    lo[i] = j * nt; hiOff[i] = (j + 1) * nt;
+    frac[i] = x1 > x0 ? (el - x0) / (x1 - x0) : 0;
+  }
+}
+
+/** One tabulated term (flat index k = case × TERM_COUNT + term) over a column's intervals, into out[0 … n−1]. */
+export function tableTermColumn(table: ElevationTable, k: number, n: number, lo: Int32Array, hiOff: Int32Array, frac: Float64Array, out: Float64Array): void {
+  const v = table.values;
+  for (let i = 0; i < n; i++) {
+    const a = v[lo[i] + k];
+    out[i] = a + frac[i] * (v[hiOff[i] + k] - a);
+  }
 }

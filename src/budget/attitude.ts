@@ -13,6 +13,7 @@
  *   so against the SMAD spherical-Earth off-nadir angle the difference is the
  *   ellipsoid's (up to ~0.2° between geocentric and geodetic verticals).
  */
+import type { SatelliteColumns, StationColumns } from '../geometry/columns.js';
 import type { GeometrySample } from '../geometry/types.js';
 import type { SpacecraftPointing } from './types.js';
 
@@ -56,11 +57,34 @@ export function unitVector(v: readonly [number, number, number]): [number, numbe
 
 /**
  * Geometric off-boresight angle (deg) of the station seen from the spacecraft
- * antenna. `boresight` is the unit boresight (body frame for nadir, TEME for
+ * antenna, from the TEME state (r, v) and the unit line of sight u to the
+ * station. `boresight` is the unit boresight (body frame for nadir, TEME for
  * inertial; ignored for tracking, which is 0° by definition: ideal tracking).
  * The attitude error is not included here: the engine turns it into a
  * separate pointing loss.
  */
+function offBoresightDeg(
+  kind: SpacecraftPointing['kind'], b: readonly number[],
+  rx: number, ry: number, rz: number, vx: number, vy: number, vz: number, ux: number, uy: number, uz: number,
+): number {
+  if (kind === 'tracking') return 0;
+  if (kind === 'inertial') return angleBetweenDeg(b[0], b[1], b[2], ux, uy, uz);
+  // Nadir-pointing body frame in TEME.
+  const rn = Math.hypot(rx, ry, rz);
+  const zx = -rx / rn, zy = -ry / rn, zz = -rz / rn;
+  if (b[0] === 0 && b[1] === 0 && b[2] === 1) return angleBetweenDeg(zx, zy, zz, ux, uy, uz);
+  const vzc = vx * zx + vy * zy + vz * zz;
+  let xx = vx - vzc * zx, xy = vy - vzc * zy, xz = vz - vzc * zz;
+  const xn = Math.hypot(xx, xy, xz);
+  xx /= xn; xy /= xn; xz /= xn;
+  const yx = zy * xz - zz * xy, yy = zz * xx - zx * xz, yz = zx * xy - zy * xx;
+  const bx = b[0] * xx + b[1] * yx + b[2] * zx;
+  const by = b[0] * xy + b[1] * yy + b[2] * zy;
+  const bz = b[0] * xz + b[1] * yz + b[2] * zz;
+  return angleBetweenDeg(bx, by, bz, ux, uy, uz);
+}
+
+/** The off-boresight angle of one instant (a GeometrySample), e.g. for `explain` and the checks. */
 export function spacecraftOffBoresightDeg(
   pointing: SpacecraftPointing,
   boresight: readonly number[],
@@ -68,22 +92,24 @@ export function spacecraftOffBoresightDeg(
 ): number {
   if (pointing.kind === 'tracking') return 0;
   const u = lineOfSightTeme(sample);
-  if (pointing.kind === 'inertial') {
-    return angleBetweenDeg(boresight[0], boresight[1], boresight[2], u[0], u[1], u[2]);
-  }
-  // Nadir-pointing body frame in TEME.
   const r = sample.satPositionTemeKm, v = sample.satVelocityTemeKmS;
-  const rn = Math.hypot(r[0], r[1], r[2]);
-  const zx = -r[0] / rn, zy = -r[1] / rn, zz = -r[2] / rn;
-  const vz = v[0] * zx + v[1] * zy + v[2] * zz;
-  let xx = v[0] - vz * zx, xy = v[1] - vz * zy, xz = v[2] - vz * zz;
-  const xn = Math.hypot(xx, xy, xz);
-  xx /= xn; xy /= xn; xz /= xn;
-  const yx = zy * xz - zz * xy, yy = zz * xx - zx * xz, yz = zx * xy - zy * xx;
-  const bx = boresight[0] * xx + boresight[1] * yx + boresight[2] * zx;
-  const by = boresight[0] * xy + boresight[1] * yy + boresight[2] * zy;
-  const bz = boresight[0] * xz + boresight[1] * yz + boresight[2] * zz;
-  return angleBetweenDeg(bx, by, bz, u[0], u[1], u[2]);
+  return offBoresightDeg(pointing.kind, boresight, r[0], r[1], r[2], v[0], v[1], v[2], u[0], u[1], u[2]);
+}
+
+/**
+ * The same angle over a run of steps: satellite entries satFrom … satFrom+n−1
+ * (TEME state) and station entries 0 … n−1 (line of sight), into out[0 … n−1].
+ */
+export function spacecraftOffBoresightColumn(
+  pointing: SpacecraftPointing, boresight: readonly number[],
+  sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: Float64Array,
+): void {
+  if (pointing.kind === 'tracking') { out.fill(0, 0, n); return; }
+  const { rx, ry, rz, vx, vy, vz } = sat.teme;
+  for (let i = 0; i < n; i++) {
+    const j = satFrom + i;
+    out[i] = offBoresightDeg(pointing.kind, boresight, rx[j], ry[j], rz[j], vx[j], vy[j], vz[j], stn.losX[i], stn.losY[i], stn.losZ[i]);
+  }
 }
 
 /** Angle (deg) between two directions given as (azimuth, elevation) in degrees (haversine form). */

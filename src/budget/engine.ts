@@ -27,18 +27,21 @@
  * (P.834 refraction, from the sample), clamped to 0–90°.
  */
 import {
-  BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
-  selectAdaptiveMode,
+  adaptiveModeTable, BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
 import { dopplerRateHzS, dopplerShiftHz } from '../geometry/doppler.js';
+import {
+  createSatelliteColumns, createStationColumns, type SatelliteColumns, type StationColumns,
+} from '../geometry/columns.js';
 import type { GeometrySample } from '../geometry/types.js';
 import { antennaPattern, type AntennaPattern } from './antenna.js';
 import {
-  atmosphereAt, buildElevationTable, createAtmosphereContext, interpolateTable, TERM, TERM_COUNT,
+  atmosphereAt, buildElevationTable, createAtmosphereContext, tableIntervals, tableTermColumn, TERM, TERM_COUNT,
   type AtmosphereContext, type ElevationTable,
 } from './atmosphere.js';
-import { azElSeparationDeg, spacecraftOffBoresightDeg, unitVector } from './attitude.js';
+import { azElSeparationDeg, lineOfSightTeme, spacecraftOffBoresightColumn, unitVector } from './attitude.js';
+import { createLinkColumns, readStep, type LinkColumns } from './linkColumns.js';
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMount, type MountState } from './mount.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
@@ -84,6 +87,16 @@ export interface LinkEngine {
   beginPass(): void;
   /** Evaluate one step (steps of a pass in time order). Returns `out` (or an internal reused record). */
   evaluate(sample: GeometrySample, out?: StepBudget): StepBudget;
+  /**
+   * Evaluate a run of steps of one pass, in time order: satellite entries
+   * satFrom … satFrom+n−1 (times sat.t0S + index·sat.stepS) and station entries
+   * 0 … n−1, into `out`. With `full` false only what the summaries need is
+   * filled per case (total attenuation, G/T, C/N0, Es/N0, Eb/N0, margin,
+   * usable, mode, rate); the individual atmospheric and noise terms are not.
+   */
+  evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full?: boolean): LinkColumns;
+  /** Adaptive mode names by index (empty for a fixed-rate link). */
+  modeNames: readonly string[];
   /**
    * Evaluate one step (as `evaluate`, advancing the mount) and describe every term
    * (allocates; not for the hot path). The step record goes into `out` when given.
@@ -157,7 +170,6 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   }
   const table = options.table ?? buildElevationTable(ctx, options.tableToleranceDB);
   const nTerms = weatherCases.length * TERM_COUNT;
-  const terms = new Float64Array(nTerms);
 
   // Constant per link.
   const txPowerDBW = txEnd.txPowerDBW as number;
@@ -232,6 +244,11 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     atmosphericElevationDeg: NaN, txPowerDBW, txLineLossDB, txGainDBi: NaN, rxGainDBi: NaN, rxFeedLossDB: ctx.rxFeedLossDB,
     spacecraftOffBoresightDeg: NaN, groundOffBoresightDeg: NaN,
   };
+  const modeTable = mc.kind === 'adaptive' ? adaptiveModeTable(modes, reqMargin) : null;
+  const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
+  const modeNames = modes.map((m) => m.name);
+  // Ground pointing loss of a program track when the mount does not lag (lag 0: the error alone).
+  const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
   function pointingLoss(p: AntennaPattern, offDeg: number, errDeg: number, gainAtOff: number): number {
     if (!(errDeg > 0)) return 0;
@@ -239,123 +256,158 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     return l > 0 ? l : 0;
   }
 
-  function evaluate(s: GeometrySample, out: StepBudget = own): StepBudget {
-    out.time_s = s.timeS;
-    out.range_km = s.rangeKm;
-    out.elevation_deg = s.elevationDeg;
-    out.azimuth_deg = s.azimuthDeg;
+  // Scratch columns, grown on demand.
+  let cap = 0;
+  let scOff = new Float64Array(0), scGain = new Float64Array(0), scLoss = new Float64Array(0);
+  let gOff = new Float64Array(0), gGain = new Float64Array(0), gLoss = new Float64Array(0);
+  let lo = new Int32Array(0), hiOff = new Int32Array(0), frac = new Float64Array(0), fixedLoss = new Float64Array(0);
+  function scratch(n: number): void {
+    if (n <= cap) return;
+    cap = Math.max(n, 2 * cap);
+    scOff = new Float64Array(cap); scGain = new Float64Array(cap); scLoss = new Float64Array(cap);
+    gOff = new Float64Array(cap); gGain = new Float64Array(cap); gLoss = new Float64Array(cap);
+    lo = new Int32Array(cap); hiOff = new Int32Array(cap); frac = new Float64Array(cap); fixedLoss = new Float64Array(cap);
+  }
+
+  function evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full = true): LinkColumns {
+    if (n > out.capacity) throw new Error(`link ${link.name}: ${n} steps do not fit columns of ${out.capacity}`);
+    scratch(n);
+    out.n = n;
+    out.polarisationLossDB = polLoss;
+    out.otherLossesDB = link.otherLossesDB;
 
     // Spacecraft end.
-    const scOff = spacecraftOffBoresightDeg(scPointing, scBoresight, s);
-    const scGain = scAnt.gainAtDBi(scOff);
-    const scLoss = pointingLoss(scAnt, scOff, scErrDeg, scGain);
+    spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, scOff);
+    for (let i = 0; i < n; i++) {
+      const g = scAnt.gainAtDBi(scOff[i]);
+      scGain[i] = g;
+      scLoss[i] = pointingLoss(scAnt, scOff[i], scErrDeg, g);
+    }
 
     // Ground end: fixed boresight, or program track with optional rate-limited mount.
-    const appEl = s.apparentElevationDeg;
-    let gndOff: number;
-    let gndLoss: number;
-    let gndGain: number;
+    const az = stn.azimuthDeg, appEl = stn.apparentElevationDeg;
     if (gp.kind === 'fixed') {
-      gndOff = azElSeparationDeg(gp.azimuthDeg, gp.elevationDeg, s.azimuthDeg, appEl);
-      gndGain = gndAnt.gainAtDBi(gndOff);
-      gndLoss = 0;
-      out.mount_lag_deg = 0;
-      out.mount_limited = false;
-    } else {
-      let lag = 0;
-      if (rateLimited) {
-        stepMount(mount, s.timeS, s.azimuthDeg, appEl, maxAzRate, maxElRate);
-        lag = mount.lagDeg;
-        out.mount_limited = mount.limited;
-      } else {
-        out.mount_limited = false;
+      for (let i = 0; i < n; i++) {
+        const off = azElSeparationDeg(gp.azimuthDeg, gp.elevationDeg, az[i], appEl[i]);
+        gOff[i] = off; gGain[i] = gndAnt.gainAtDBi(off); gLoss[i] = 0;
+        out.mountLagDeg[i] = 0; out.mountLimited[i] = 0;
       }
-      out.mount_lag_deg = lag;
-      gndOff = lag;
-      gndGain = gndAnt.peakGainDBi;
-      const total = lag + gndErrDeg;
-      gndLoss = total > 0 ? Math.max(0, gndGain - gndAnt.gainAtDBi(total)) : 0;
-    }
-
-    let txGain: number, rxGain: number;
-    if (downlink) {
-      out.tx_off_boresight_deg = scOff; out.rx_off_boresight_deg = gndOff;
-      out.tx_pointing_loss_db = scLoss; out.rx_pointing_loss_db = gndLoss;
-      txGain = scGain; rxGain = gndGain;
     } else {
-      out.tx_off_boresight_deg = gndOff; out.rx_off_boresight_deg = scOff;
-      out.tx_pointing_loss_db = gndLoss; out.rx_pointing_loss_db = scLoss;
-      txGain = gndGain; rxGain = scGain;
-    }
-    const eirp = txPowerDBW - txLineLossDB + txGain;
-    out.eirp_dbw = eirp;
-    fslArgs.distanceKm = s.rangeKm;
-    const fsl = freeSpaceLossDB(fslArgs);
-    out.free_space_loss_db = fsl;
-    out.polarisation_loss_db = polLoss;
-    out.other_losses_db = link.otherLossesDB;
-    // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
-    // shift is the same to first order whichever end transmits (downlink: as received on the
-    // ground; uplink: as the spacecraft sees it).
-    dopArgs.rangeRateKmS = s.rangeRateKmS;
-    out.doppler_hz = dopplerShiftHz(dopArgs);
-    rateArgs.rangeAccelKmS2 = s.rangeAccelKmS2;
-    out.doppler_rate_hz_s = dopplerRateHzS(rateArgs);
-
-    const atmEl = appEl > 90 ? 90 : appEl > 0 ? appEl : 0;
-    interpolateTable(table, atmEl, terms);
-    // Received gain relative to boresight enters G/T (the table holds G/T at boresight).
-    const rxGainOffset = rxGain - rxAnt.peakGainDBi;
-    const fixedLossesDB = fsl + polLoss + out.tx_pointing_loss_db + out.rx_pointing_loss_db + link.otherLossesDB;
-
-    const cases = out.cases;
-    for (let i = 0; i < cases.length; i++) {
-      const c = cases[i];
-      const o = i * TERM_COUNT;
-      c.gas_loss_db = terms[o + TERM.gas];
-      c.rain_loss_db = terms[o + TERM.rain];
-      c.cloud_loss_db = terms[o + TERM.cloud];
-      c.scintillation_db = terms[o + TERM.scintillation];
-      const atm = terms[o + TERM.total];
-      c.atmospheric_loss_db = atm;
-      c.antenna_temperature_k = terms[o + TERM.antennaTemperatureK];
-      c.system_temperature_k = terms[o + TERM.systemTemperatureK];
-      const gt = terms[o + TERM.gOverTBoresightDBK] + rxGainOffset;
-      c.g_over_t_dbk = gt;
-      const cn0 = eirp - fixedLossesDB - atm + gt - k;
-      c.c_over_n0_dbhz = cn0;
-      const esn0 = cn0 - rsDB;
-      c.es_over_n0_db = esn0;
-      if (mc.kind === 'fixed') {
-        const ebn0 = cn0 - rbDB;
-        c.eb_over_n0_db = ebn0;
-        c.required_eb_over_n0_db = mc.requiredEbN0DB;
-        const margin = ebn0 - mc.requiredEbN0DB - impl;
-        c.margin_db = margin;
-        c.usable = margin >= reqMargin;
-        c.mode = '';
-        c.information_rate_bps = c.usable ? bitRate : 0;
-      } else {
-        const effective = esn0 - impl;
-        const chosen = selectAdaptiveMode(modes, effective, reqMargin);
-        const mi = chosen >= 0 ? chosen : lowestIndex;
-        const m = modes[mi];
-        const effDB = modeEffDB[mi];
-        c.margin_db = effective - m.requiredEsN0DB;
-        // Eb/N0 = Es/N0 − 10 log10(information bits per symbol) of the mode in use.
-        c.eb_over_n0_db = esn0 - effDB;
-        c.required_eb_over_n0_db = m.requiredEsN0DB - effDB;
-        c.usable = chosen >= 0;
-        c.mode = c.usable ? m.name : '';
-        c.information_rate_bps = c.usable ? symbolRate * m.efficiencyBitsPerSymbol : 0;
+      const peak = gndAnt.peakGainDBi;
+      for (let i = 0; i < n; i++) {
+        let lag = 0;
+        if (rateLimited) {
+          stepMount(mount, sat.t0S + (satFrom + i) * sat.stepS, az[i], appEl[i], maxAzRate, maxElRate);
+          lag = mount.lagDeg;
+          out.mountLimited[i] = mount.limited ? 1 : 0;
+        } else {
+          out.mountLimited[i] = 0;
+        }
+        out.mountLagDeg[i] = lag;
+        gOff[i] = lag;
+        gGain[i] = peak;
+        const total = lag + gndErrDeg;
+        gLoss[i] = lag === 0 ? gndLossNoLag : total > 0 ? Math.max(0, peak - gndAnt.gainAtDBi(total)) : 0;
       }
     }
 
-    detail.atmosphericElevationDeg = atmEl;
-    detail.txGainDBi = txGain;
-    detail.rxGainDBi = rxGain;
-    detail.spacecraftOffBoresightDeg = scOff;
-    detail.groundOffBoresightDeg = gndOff;
+    const txOff = downlink ? scOff : gOff, rxOff = downlink ? gOff : scOff;
+    const txGain = downlink ? scGain : gGain, rxGain = downlink ? gGain : scGain;
+    const txLoss = downlink ? scLoss : gLoss, rxLoss = downlink ? gLoss : scLoss;
+    const range = stn.rangeKm, rdot = stn.rangeRateKmS, rddot = stn.rangeAccelKmS2;
+    const atmEl = out.atmosphericElevationDeg;
+    for (let i = 0; i < n; i++) {
+      out.txOffBoresightDeg[i] = txOff[i]; out.rxOffBoresightDeg[i] = rxOff[i];
+      out.txGainDBi[i] = txGain[i]; out.rxGainDBi[i] = rxGain[i];
+      out.txPointingLossDB[i] = txLoss[i]; out.rxPointingLossDB[i] = rxLoss[i];
+      out.eirpDBW[i] = txPowerDBW - txLineLossDB + txGain[i];
+      fslArgs.distanceKm = range[i];
+      const fsl = freeSpaceLossDB(fslArgs);
+      out.freeSpaceLossDB[i] = fsl;
+      // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
+      // shift is the same to first order whichever end transmits (downlink: as received on the
+      // ground; uplink: as the spacecraft sees it).
+      dopArgs.rangeRateKmS = rdot[i];
+      out.dopplerHz[i] = dopplerShiftHz(dopArgs);
+      rateArgs.rangeAccelKmS2 = rddot[i];
+      out.dopplerRateHzS[i] = dopplerRateHzS(rateArgs);
+      const e = appEl[i];
+      atmEl[i] = e > 90 ? 90 : e > 0 ? e : 0;
+      fixedLoss[i] = fsl + polLoss + txLoss[i] + rxLoss[i] + link.otherLossesDB;
+    }
+    tableIntervals(table, atmEl, n, lo, hiOff, frac);
+
+    for (let ci = 0; ci < out.cases.length; ci++) {
+      const c = out.cases[ci];
+      const o = ci * TERM_COUNT;
+      // G/T at boresight from the table, plus the received gain relative to boresight.
+      tableTermColumn(table, o + TERM.total, n, lo, hiOff, frac, c.atmosphericDB);
+      tableTermColumn(table, o + TERM.gOverTBoresightDBK, n, lo, hiOff, frac, c.gOverTDBK);
+      if (full) {
+        tableTermColumn(table, o + TERM.gas, n, lo, hiOff, frac, c.gasDB);
+        tableTermColumn(table, o + TERM.rain, n, lo, hiOff, frac, c.rainDB);
+        tableTermColumn(table, o + TERM.cloud, n, lo, hiOff, frac, c.cloudDB);
+        tableTermColumn(table, o + TERM.scintillation, n, lo, hiOff, frac, c.scintillationDB);
+        tableTermColumn(table, o + TERM.antennaTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK);
+        tableTermColumn(table, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.systemTemperatureK);
+      }
+      const atm = c.atmosphericDB, gt = c.gOverTDBK;
+      for (let i = 0; i < n; i++) {
+        const g = gt[i] + (out.rxGainDBi[i] - rxAnt.peakGainDBi);
+        gt[i] = g;
+        const cn0 = out.eirpDBW[i] - fixedLoss[i] - atm[i] + g - k;
+        c.cOverN0DBHz[i] = cn0;
+        const esn0 = cn0 - rsDB;
+        c.esN0DB[i] = esn0;
+        if (mc.kind === 'fixed') {
+          const ebn0 = cn0 - rbDB;
+          c.ebN0DB[i] = ebn0;
+          c.requiredEbN0DB[i] = mc.requiredEbN0DB;
+          const margin = ebn0 - mc.requiredEbN0DB - impl;
+          c.marginDB[i] = margin;
+          const usable = margin >= reqMargin;
+          c.usable[i] = usable ? 1 : 0;
+          c.mode[i] = -1;
+          c.informationRateBps[i] = usable ? bitRate : 0;
+        } else {
+          const effective = esn0 - impl;
+          const chosen = modeTable!.choose(effective);
+          const mi = chosen >= 0 ? chosen : lowestIndex;
+          const m = modes[mi];
+          const effDB = modeEffDB[mi];
+          c.marginDB[i] = effective - m.requiredEsN0DB;
+          // Eb/N0 = Es/N0 − 10 log10(information bits per symbol) of the mode in use.
+          c.ebN0DB[i] = esn0 - effDB;
+          c.requiredEbN0DB[i] = m.requiredEsN0DB - effDB;
+          c.usable[i] = chosen >= 0 ? 1 : 0;
+          c.mode[i] = chosen;
+          c.informationRateBps[i] = chosen >= 0 ? modeRates[chosen] : 0;
+        }
+      }
+    }
+    return out;
+  }
+
+  // One step from a GeometrySample: the same column code on columns of length one.
+  const sat1 = createSatelliteColumns(1);
+  const stn1 = createStationColumns(1);
+  const cols1 = createLinkColumns(1, weatherCases.length);
+  function evaluate(s: GeometrySample, out: StepBudget = own): StepBudget {
+    const t = sat1.teme;
+    const r = s.satPositionTemeKm, v = s.satVelocityTemeKmS;
+    t.rx[0] = r[0]; t.ry[0] = r[1]; t.rz[0] = r[2]; t.vx[0] = v[0]; t.vy[0] = v[1]; t.vz[0] = v[2];
+    sat1.n = 1; sat1.t0S = s.timeS; sat1.stepS = 0;
+    stn1.azimuthDeg[0] = s.azimuthDeg; stn1.elevationDeg[0] = s.elevationDeg; stn1.apparentElevationDeg[0] = s.apparentElevationDeg;
+    stn1.rangeKm[0] = s.rangeKm; stn1.rangeRateKmS[0] = s.rangeRateKmS; stn1.rangeAccelKmS2[0] = s.rangeAccelKmS2;
+    const u = lineOfSightTeme(s);
+    stn1.losX[0] = u[0]; stn1.losY[0] = u[1]; stn1.losZ[0] = u[2];
+    evaluateColumns(sat1, 0, stn1, 1, cols1, true);
+    readStep(stn1, cols1, 0, s.timeS, modeNames, out);
+    detail.atmosphericElevationDeg = cols1.atmosphericElevationDeg[0];
+    detail.txGainDBi = cols1.txGainDBi[0];
+    detail.rxGainDBi = cols1.rxGainDBi[0];
+    detail.spacecraftOffBoresightDeg = downlink ? cols1.txOffBoresightDeg[0] : cols1.rxOffBoresightDeg[0];
+    detail.groundOffBoresightDeg = downlink ? cols1.rxOffBoresightDeg[0] : cols1.txOffBoresightDeg[0];
     return out;
   }
 
@@ -365,6 +417,8 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     polarisationLossDB: polLoss, notes, table, detail,
     beginPass() { resetMount(mount); },
     evaluate,
+    evaluateColumns,
+    modeNames,
     symbolRateBaud: symbolRate,
     bitRateBps: bitRate,
     explain(sample, out) {

@@ -7,3 +7,4 @@ export * from './columns.js';
 export * from './engine.js';
 export * from './explain.js';
 export * from './instant.js';
+export * from './linkColumns.js';

@@ -3,19 +3,20 @@
  *
  * Our model (no published source; plain kinematics): the mount is pre-positioned
  * on the target at the first step of a pass (AOS). Between two steps the target
- * direction is interpolated linearly (azimuth the short way round) in sub-steps
- * of at most SUBSTEP_S; at each sub-step each axis moves toward the target by at
- * most its maximum rate × sub-step, azimuth the short way round. The lag is the
- * angle between the mount boresight and the target at the step instant. A mount
- * that is never rate-bound follows the interpolated track exactly (lag 0).
- * State is carried across the steps of one pass; steps come in time order.
+ * moves linearly in azimuth (the short way round) and in elevation; each axis
+ * moves toward the target at its maximum rate while it lags, and follows the
+ * target exactly once on it, as long as the target's rate on that axis is within
+ * the limit. That motion is solved exactly per axis (`followAxis`: the lag is
+ * piecewise linear in time, with breaks where it closes or, in azimuth, where
+ * the short way round flips at 180°), so the result does not depend on any
+ * sub-step. The lag is the angle between the mount boresight and the target at
+ * the step instant. State is carried across the steps of one pass; steps come
+ * in time order.
  */
 import { azElSeparationDeg } from './attitude.js';
 
-export const MOUNT_SUBSTEP_S = 0.5;
 /** A gap longer than this between steps re-primes the mount (a new pass). */
 const MAX_GAP_S = 3600;
-const MAX_SUBSTEPS = 4000;
 
 export interface MountState {
   primed: boolean;
@@ -55,6 +56,55 @@ function wrap360(a: number): number {
 }
 
 /**
+ * Lag d = target − mount (deg) of one axis after `h` seconds, starting from
+ * `d0`, with the target moving at `v` deg/s and the mount at most `limit` deg/s
+ * (Infinity: unlimited). While |d| > 0 the mount runs at its limit toward the
+ * target, so d changes at v − limit·sign(d); at d = 0 it follows when |v| ≤
+ * limit. `wrap` (azimuth): d is the short way round, so where |d| reaches 180°
+ * the mount turns to the other way. `out[0]` = lag, `out[1]` = 1 when the axis
+ * was rate-bound at any time in the interval.
+ */
+export function followAxis(d0: number, v: number, limit: number, h: number, wrap: boolean, out: Float64Array): Float64Array {
+  if (!(limit < Infinity)) { out[0] = 0; out[1] = 0; return out; }
+  let d = d0;
+  let rem = h;
+  let limited = false;
+  for (let it = 0; it < 16 && rem > 0; it++) {
+    if (d === 0) {
+      if (Math.abs(v) <= limit) break;
+      limited = true;
+      const s = v > 0 ? 1 : -1;
+      const rate = v - limit * s;
+      if (wrap && 180 / Math.abs(rate) < rem) { rem -= 180 / Math.abs(rate); d = -s * 180; continue; }
+      d = rate * rem;
+      rem = 0;
+      break;
+    }
+    limited = true;
+    const s = d > 0 ? 1 : -1;
+    const rate = v - limit * s;
+    if (rate * s < 0) {
+      const tc = Math.abs(d) / Math.abs(rate);
+      if (tc >= rem) { d += rate * rem; rem = 0; break; }
+      d = 0;
+      rem -= tc;
+      continue;
+    }
+    if (wrap && rate * s > 0) {
+      const tw = (180 - Math.abs(d)) / Math.abs(rate);
+      if (tw < rem) { rem -= tw; d = -s * 180; continue; }
+    }
+    d += rate * rem;
+    rem = 0;
+  }
+  out[0] = d;
+  out[1] = limited ? 1 : 0;
+  return out;
+}
+
+const axis = new Float64Array(2);
+
+/**
  * Advance the mount to time `timeS` with the target at (azDeg, elDeg).
  * Rates ≤ 0 or non-finite mean "unlimited" on that axis. Writes lagDeg/limited into the state.
  */
@@ -76,26 +126,22 @@ export function stepMount(
   }
   const azLimit = maxAzRateDegS > 0 && Number.isFinite(maxAzRateDegS) ? maxAzRateDegS : Infinity;
   const elLimit = maxElRateDegS > 0 && Number.isFinite(maxElRateDegS) ? maxElRateDegS : Infinity;
-  const n = Math.min(MAX_SUBSTEPS, Math.max(1, Math.ceil(dt / MOUNT_SUBSTEP_S)));
-  const h = dt / n;
-  const az0 = s.targetAzDeg, el0 = s.targetElDeg;
-  const dAzTarget = azimuthDeltaDeg(az0, azDeg), dElTarget = elDeg - el0;
   let limited = false;
-  let maz = s.azDeg, mel = s.elDeg;
-  for (let i = 1; i <= n; i++) {
-    const f = i / n;
-    const taz = az0 + f * dAzTarget, tel = el0 + f * dElTarget;
-    const da = azimuthDeltaDeg(maz, taz);
-    const de = tel - mel;
-    const stepAz = azLimit * h, stepEl = elLimit * h;
-    if (Math.abs(da) > stepAz) { maz += Math.sign(da) * stepAz; limited = true; } else maz += da;
-    if (Math.abs(de) > stepEl) { mel += Math.sign(de) * stepEl; limited = true; } else mel += de;
+  let dAz = 0, dEl = 0;
+  if (dt > 0) {
+    followAxis(azimuthDeltaDeg(s.azDeg, s.targetAzDeg), azimuthDeltaDeg(s.targetAzDeg, azDeg) / dt, azLimit, dt, true, axis);
+    dAz = axis[0]; limited = axis[1] === 1;
+    followAxis(s.targetElDeg - s.elDeg, (elDeg - s.targetElDeg) / dt, elLimit, dt, false, axis);
+    dEl = axis[0]; limited = limited || axis[1] === 1;
+  } else {
+    dAz = azimuthDeltaDeg(s.azDeg, azDeg); dEl = elDeg - s.elDeg;
+    limited = dAz !== 0 || dEl !== 0;
   }
-  s.azDeg = wrap360(maz); s.elDeg = mel;
+  s.azDeg = wrap360(azDeg - dAz); s.elDeg = elDeg - dEl;
   s.timeS = timeS;
   s.targetAzDeg = wrap360(azDeg); s.targetElDeg = elDeg;
-  s.lagDeg = limited ? azElSeparationDeg(s.azDeg, s.elDeg, azDeg, elDeg) : 0;
-  // A mount that just caught up ends on target; report that as no lag but still rate-bound.
+  s.lagDeg = limited && (dAz !== 0 || dEl !== 0) ? azElSeparationDeg(s.azDeg, s.elDeg, azDeg, elDeg) : 0;
+  // A mount that just caught up ends on target: no lag, but it was rate-bound in the interval.
   s.limited = limited;
   return s;
 }

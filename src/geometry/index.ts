@@ -5,3 +5,4 @@ export * from './mask.js';
 export * from './doppler.js';
 export * from './station.js';
 export * from './spec.js';
+export * from './columns.js';

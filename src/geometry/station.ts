@@ -1,32 +1,43 @@
 /**
  * Look angles, range, range rate and range acceleration of a satellite from a
  * WGS-84 station, in the Earth-fixed frame (TEME rotated by GMST; see
- * src/orbit/frames.ts). All work happens in preallocated arrays: `sample`
- * and `elevationMinusMask` allocate nothing per call (satellite.js's own
- * result objects aside).
+ * src/orbit/frames.ts), at one instant: `sample` runs the column kernels of
+ * geometry/columns.ts on one entry (one implementation for the sweep and
+ * for `explain`); `elevationMinusMask` and `look` are the light forms the
+ * pass search evaluates. Nothing allocates per call.
  */
 import { InputError } from '../errors.js';
-import { EARTH_ROTATION_RAD_S, gmstRad, temeToEcef } from '../orbit/frames.js';
-import type { Propagator } from '../orbit/propagator.js';
+import { gmstRad } from '../orbit/frames.js';
+import {
+  createSatelliteColumns, createStationColumns, satelliteEarthFixed, stationLook, type StationFrame,
+} from './columns.js';
 import { maskElevationDeg, validateMask } from './mask.js';
 import { apparentElevationDeg } from './refraction.js';
 import type { GeometrySample, Station } from './types.js';
 import { ecefToGeodetic, geodeticToEcefKm, type Geodetic } from './wgs84.js';
 
 const DEG = Math.PI / 180;
-/** WGS-72 constants that SGP4 itself uses (Vallado et al. AIAA 2006-6753): μ (km³/s²), Earth radius (km), J2. */
-const MU_KM3_S2 = 398_600.8;
-const RE_KM = 6378.135;
-const J2 = 0.001082616;
+
+/** Anything that gives the satellite's TEME state at a time: a Propagator (direct SGP4) or an OrbitSource. */
+export interface StateSource {
+  stateTeme(timeS: number, posOut: Float64Array, velOut: Float64Array): void;
+}
+
+/** Azimuth, geometric elevation (deg) and range (km): what the pass search needs. */
+export interface LookAngles { azimuthDeg: number; elevationDeg: number; rangeKm: number }
 
 export interface StationGeometry {
   readonly station: Station;
   /** Station position, ECEF km. */
   readonly ecefKm: Float64Array;
+  /** The frame the column kernels use (geometry/columns.ts). */
+  readonly frame: StationFrame;
   /** Fill `out` with the full geometry at `timeS`; returns `out`. */
-  sample(propagator: Propagator, timeS: number, out: GeometrySample): GeometrySample;
+  sample(orbit: StateSource, timeS: number, out: GeometrySample): GeometrySample;
   /** Elevation minus mask at `timeS` (deg; ≥ 0 means visible), for the event search. */
-  elevationMinusMask(propagator: Propagator, timeS: number): number;
+  elevationMinusMask(orbit: StateSource, timeS: number): number;
+  /** Azimuth, elevation and range at `timeS` (no rates, no refraction), into `out`. */
+  look(orbit: StateSource, timeS: number, out: LookAngles): LookAngles;
 }
 
 /** Check a station's fields (InputError naming `where`) and return it with a validated mask. */
@@ -38,104 +49,98 @@ export function validateStation(station: Station, where: string): Station {
   return { ...station, mask: validateMask(station.mask, `${where} mask`) };
 }
 
-/**
- * Gravity acceleration in TEME (km/s²): two-body plus the J2 zonal term,
- * the dominant perturbation (about 1e-3 of the central term); drag and
- * higher harmonics are left out (each below ~1e-5 relative).
- */
-function gravityTeme(r: Float64Array, out: Float64Array): void {
-  const x = r[0]; const y = r[1]; const z = r[2];
-  const r2 = x * x + y * y + z * z;
-  const rn = Math.sqrt(r2);
-  const k = -MU_KM3_S2 / (r2 * rn);
-  const j = 1.5 * J2 * (RE_KM * RE_KM) / r2;
-  const zz = (5 * z * z) / r2;
-  out[0] = k * x * (1 + j * (1 - zz));
-  out[1] = k * y * (1 + j * (1 - zz));
-  out[2] = k * z * (1 + j * (3 - zz));
+export function stationFrame(station: Station): StationFrame {
+  const hKm = station.heightM / 1000;
+  const phi = station.latitudeDeg * DEG;
+  const lam = station.longitudeDeg * DEG;
+  return {
+    ecefKm: geodeticToEcefKm(station.latitudeDeg, station.longitudeDeg, hKm), heightKm: hKm,
+    sinLat: Math.sin(phi), cosLat: Math.cos(phi), sinLon: Math.sin(lam), cosLon: Math.cos(lam),
+  };
 }
 
 export function createStationGeometry(input: Station): StationGeometry {
   const station = validateStation(input, `station ${input.name}`);
-  const hKm = station.heightM / 1000;
-  const ecef = geodeticToEcefKm(station.latitudeDeg, station.longitudeDeg, hKm);
-  const phi = station.latitudeDeg * DEG;
-  const lam = station.longitudeDeg * DEG;
-  const sp = Math.sin(phi); const cp = Math.cos(phi);
-  const sl = Math.sin(lam); const cl = Math.cos(lam);
+  const frame = stationFrame(station);
+  const { ecefKm: ecef, heightKm: hKm, sinLat: sp, cosLat: cp, sinLon: sl, cosLon: cl } = frame;
   const mask = station.mask;
   const isConstant = mask.kind === 'constant';
   const constantMask = mask.kind === 'constant' ? mask.elevationDeg : 0;
   const onApparent = station.maskOnApparentElevation === true;
   const rT = new Float64Array(3); const vT = new Float64Array(3);
-  const rE = new Float64Array(3); const vE = new Float64Array(3);
-  const aT = new Float64Array(3);
   const geo: Geodetic = { latitudeDeg: 0, longitudeDeg: 0, heightKm: 0 };
+  // Columns of length one: the per-instant geometry runs the sweep's kernels.
+  const sat1 = createSatelliteColumns(1);
+  const stn1 = createStationColumns(1);
 
-  function elevationMinusMask(prop: Propagator, t: number): number {
-    prop.stateTeme(t, rT, vT);
+  /** East, north, up (km) of the satellite at t into enu; returns GMST. */
+  const enu = new Float64Array(3);
+  function topocentric(orbit: StateSource, t: number): void {
+    orbit.stateTeme(t, rT, vT);
     const g = gmstRad(t);
     const c = Math.cos(g); const s = Math.sin(g);
     const dx = c * rT[0] + s * rT[1] - ecef[0];
     const dy = -s * rT[0] + c * rT[1] - ecef[1];
     const dz = rT[2] - ecef[2];
-    const e = -sl * dx + cl * dy;
-    const n = -sp * cl * dx - sp * sl * dy + cp * dz;
-    const u = cp * cl * dx + cp * sl * dy + sp * dz;
-    let el = Math.atan2(u, Math.hypot(e, n)) / DEG;
+    enu[0] = -sl * dx + cl * dy;
+    enu[1] = -sp * cl * dx - sp * sl * dy + cp * dz;
+    enu[2] = cp * cl * dx + cp * sl * dy + sp * dz;
+  }
+
+  function elevationMinusMask(orbit: StateSource, t: number): number {
+    topocentric(orbit, t);
+    const e = enu[0]; const n = enu[1];
+    let el = Math.atan2(enu[2], Math.hypot(e, n)) / DEG;
     if (onApparent) el = apparentElevationDeg(hKm, el);
     if (isConstant) return el - constantMask;
     const az = Math.atan2(e, n) / DEG;
     return el - maskElevationDeg(mask, az < 0 ? az + 360 : az);
   }
 
-  function sample(prop: Propagator, t: number, out: GeometrySample): GeometrySample {
-    const r = out.satPositionTemeKm; const v = out.satVelocityTemeKmS;
-    const re = out.satPositionEcefKm; const ve = out.satVelocityEcefKmS;
-    prop.stateTeme(t, r, v);
-    const g = gmstRad(t);
-    temeToEcef(g, r, v, re, ve);
-    out.stationEcefKm[0] = ecef[0]; out.stationEcefKm[1] = ecef[1]; out.stationEcefKm[2] = ecef[2];
-    const dx = re[0] - ecef[0]; const dy = re[1] - ecef[1]; const dz = re[2] - ecef[2];
-    const rho = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const e = -sl * dx + cl * dy;
-    const n = -sp * cl * dx - sp * sl * dy + cp * dz;
-    const u = cp * cl * dx + cp * sl * dy + sp * dz;
-    const el = Math.atan2(u, Math.hypot(e, n)) / DEG;
-    let az = Math.atan2(e, n) / DEG;
-    if (az < 0) az += 360;
-    const rdot = (dx * ve[0] + dy * ve[1] + dz * ve[2]) / rho;
+  function look(orbit: StateSource, t: number, out: LookAngles): LookAngles {
+    topocentric(orbit, t);
+    const e = enu[0]; const n = enu[1]; const u = enu[2];
+    out.elevationDeg = Math.atan2(u, Math.hypot(e, n)) / DEG;
+    const az = Math.atan2(e, n) / DEG;
+    out.azimuthDeg = az < 0 ? az + 360 : az;
+    out.rangeKm = Math.sqrt(e * e + n * n + u * u);
+    return out;
+  }
 
-    // Earth-fixed acceleration: a_E = R a_T − 2 ω×v_E − ω×(ω×r_E), ω = (0, 0, ω⊕).
-    gravityTeme(r, aT);
-    const c = Math.cos(g); const s = Math.sin(g);
-    const w = EARTH_ROTATION_RAD_S;
-    const ax = c * aT[0] + s * aT[1] + 2 * w * ve[1] + w * w * re[0];
-    const ay = -s * aT[0] + c * aT[1] - 2 * w * ve[0] + w * w * re[1];
-    const az3 = aT[2];
-    const v2 = ve[0] * ve[0] + ve[1] * ve[1] + ve[2] * ve[2];
-    // d²|ρ|/dt² = (|ρ̇|² + ρ·ρ̈ − ṙ²) / |ρ| with the station at rest in ECEF.
-    const rddot = (v2 + dx * ax + dy * ay + dz * az3 - rdot * rdot) / rho;
+  function sample(orbit: StateSource, t: number, out: GeometrySample): GeometrySample {
+    orbit.stateTeme(t, rT, vT);
+    const st = sat1.teme;
+    st.rx[0] = rT[0]; st.ry[0] = rT[1]; st.rz[0] = rT[2];
+    st.vx[0] = vT[0]; st.vy[0] = vT[1]; st.vz[0] = vT[2];
+    sat1.n = 1; sat1.t0S = t; sat1.stepS = 0;
+    satelliteEarthFixed(sat1);
+    stationLook(frame, sat1, 0, 1, stn1);
+    out.satPositionTemeKm.set(rT); out.satVelocityTemeKmS.set(vT);
+    const re = out.satPositionEcefKm; const ve = out.satVelocityEcefKmS;
+    re[0] = sat1.ex[0]; re[1] = sat1.ey[0]; re[2] = sat1.ez[0];
+    ve[0] = sat1.evx[0]; ve[1] = sat1.evy[0]; ve[2] = sat1.evz[0];
+    out.stationEcefKm[0] = ecef[0]; out.stationEcefKm[1] = ecef[1]; out.stationEcefKm[2] = ecef[2];
+    out.timeS = t;
+    out.azimuthDeg = stn1.azimuthDeg[0];
+    out.elevationDeg = stn1.elevationDeg[0];
+    out.apparentElevationDeg = stn1.apparentElevationDeg[0];
+    out.rangeKm = stn1.rangeKm[0];
+    out.rangeRateKmS = stn1.rangeRateKmS[0];
+    out.rangeAccelKmS2 = stn1.rangeAccelKmS2[0];
 
     ecefToGeodetic(re[0], re[1], re[2], geo);
+    const dx = re[0] - ecef[0]; const dy = re[1] - ecef[1]; const dz = re[2] - ecef[2];
+    const rho = out.rangeKm;
     const rs = Math.sqrt(re[0] * re[0] + re[1] * re[1] + re[2] * re[2]);
     // Off-nadir: angle at the spacecraft between −r (geocentric nadir) and −ρ (towards the station).
     const cosEta = (re[0] * dx + re[1] * dy + re[2] * dz) / (rs * rho);
-
-    out.timeS = t;
-    out.azimuthDeg = az;
-    out.elevationDeg = el;
-    out.apparentElevationDeg = apparentElevationDeg(hKm, el);
-    out.rangeKm = rho;
-    out.rangeRateKmS = rdot;
-    out.rangeAccelKmS2 = rddot;
     out.altitudeKm = geo.heightKm;
     out.subLatitudeDeg = geo.latitudeDeg;
     out.subLongitudeDeg = geo.longitudeDeg;
     out.offNadirDeg = Math.acos(Math.min(1, Math.max(-1, cosEta))) / DEG;
-    out.gmstRad = g;
+    out.gmstRad = gmstRad(t);
     return out;
   }
 
-  return { station, ecefKm: ecef, sample, elevationMinusMask };
+  return { station, ecefKm: ecef, frame, sample, elevationMinusMask, look };
 }

@@ -73,3 +73,41 @@ export function selectAdaptiveMode(modes: readonly AdaptiveMode[], esN0DB: numbe
   }
   return best;
 }
+
+/**
+ * selectAdaptiveMode as a table: the chosen mode is a step function of the
+ * Es/N0 (the set of modes that fit only grows with it), so the breakpoints
+ * (each distinct requiredEsN0DB + requiredMarginDB, ascending) and the mode
+ * chosen from each one on are computed once with the same rule and tie-breaks;
+ * choosing is then a search among the breakpoints. `choose(x)` equals
+ * `selectAdaptiveMode(modes, x, requiredMarginDB)` for every x (NaN: −1).
+ */
+export interface AdaptiveModeTable {
+  /** Ascending distinct thresholds (dB). */
+  thresholdsDB: Float64Array;
+  /** Mode index chosen for Es/N0 in [thresholdsDB[j], thresholdsDB[j+1]). */
+  modeFrom: Int32Array;
+  choose(esN0DB: number): number;
+}
+
+export function adaptiveModeTable(modes: readonly AdaptiveMode[], requiredMarginDB: number): AdaptiveModeTable {
+  const th = modes.map((m) => m.requiredEsN0DB + requiredMarginDB);
+  const distinct = [...new Set(th)].filter((x) => !Number.isNaN(x)).sort((a, b) => a - b);
+  const thresholdsDB = Float64Array.from(distinct);
+  const modeFrom = Int32Array.from(distinct, (x) => selectAdaptiveMode(modes, x, requiredMarginDB));
+  const n = thresholdsDB.length;
+  return {
+    thresholdsDB,
+    modeFrom,
+    choose(x) {
+      // Largest j with thresholdsDB[j] ≤ x (none for x below all, or NaN).
+      if (!(x >= thresholdsDB[0])) return -1;
+      let lo = 0, hi = n;
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (thresholdsDB[mid] <= x) lo = mid; else hi = mid;
+      }
+      return modeFrom[lo];
+    },
+  };
+}

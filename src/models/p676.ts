@@ -311,7 +311,12 @@ export function slantPathFactor(elevationDeg: number, equivalentHeightKm: number
  */
 export function gasSlantAttenuation(a: GasPathInput & { elevationDeg: number }): number {
   checkRange('gasSlantAttenuation', 'elevationDeg', a.elevationDeg, P676_SLANT_VALIDITY.elevationDeg, 'deg');
-  const z = gasZenithAttenuation(a);
-  return z.oxygenDB * slantPathFactor(a.elevationDeg, z.oxygenHeightKm)
-    + z.waterDB * slantPathFactor(a.elevationDeg, z.waterHeightKm);
+  return gasSlantFromZenith(gasZenithAttenuation(a), a.elevationDeg);
+}
+
+/** The slant form of gasSlantAttenuation from zenith parts already computed (they do not depend on elevation). */
+export function gasSlantFromZenith(z: GasZenith, elevationDeg: number): number {
+  checkRange('gasSlantFromZenith', 'elevationDeg', elevationDeg, P676_SLANT_VALIDITY.elevationDeg, 'deg');
+  return z.oxygenDB * slantPathFactor(elevationDeg, z.oxygenHeightKm)
+    + z.waterDB * slantPathFactor(elevationDeg, z.waterHeightKm);
 }

@@ -1,26 +1,42 @@
 /**
  * Pass finder: intervals where elevation − mask(azimuth) ≥ 0 for one satellite
- * and one station, through the general event search (`findCrossings`), with
- * peak elevation and TCA (time of minimum range) by bracketed maximisation.
+ * and one station, through the general event search (`scanEvents`,
+ * `assembleCrossings`), with peak elevation and TCA (time of minimum range)
+ * by bracketed maximisation.
+ *
+ * The orbit is interpolated between SGP4 nodes (orbit/interpolated.ts) unless
+ * `exactOrbit`; the coarse scan then steps on the nodes themselves (its step
+ * rounded to a multiple or divisor of the node spacing), so the scan costs no
+ * SGP4 call of its own. The scan grid is fixed by the window, so the search
+ * can be cut into pieces of the window (`PassSearch.events`), searched apart
+ * (in worker threads) and joined (`assemblePasses`) with the same result.
  */
 import type { ElementSet } from '../elements/types.js';
 import { InputError } from '../errors.js';
 import { maskMinimumDeg } from '../geometry/mask.js';
-import { createStationGeometry } from '../geometry/station.js';
-import { createGeometrySample, type Station } from '../geometry/types.js';
+import { createStationGeometry, type LookAngles, type StateSource, type StationGeometry } from '../geometry/station.js';
+import type { Station } from '../geometry/types.js';
+import { exactOrbit, interpolatedOrbit, type OrbitSource } from '../orbit/interpolated.js';
 import { createPropagator, type Propagator } from '../orbit/propagator.js';
-import { findCrossings, findMaximum } from './search.js';
+import {
+  assembleCrossings, findMaximum, scanGrid, scanEvents, type Crossing, type CrossingEvent, type ScanGrid,
+} from './search.js';
 import { passScanStepS } from './scanstep.js';
 import type { Pass } from './types.js';
 
 export interface FindPassesOptions {
-  /** Either a propagator or the element set to build one from. */
+  /** The orbit to search (as the run builds it: `createOrbit`); else one is built from a propagator or an element set. */
+  orbit?: OrbitSource;
   propagator?: Propagator;
   elements?: ElementSet;
+  /** With a propagator or element set: SGP4 at every instant instead of interpolating between nodes. */
+  exactOrbit?: boolean;
+  /** With a propagator or element set: the grid step the nodes are tied to (s); default 1. */
+  gridStepS?: number;
   station: Station;
   startS: number;
   endS: number;
-  /** Coarse scan step (s); default from the orbit (`passScanStepS`). */
+  /** Coarse scan step (s); default from the orbit (`passScanStepS`), tied to the node spacing. */
   scanStepS?: number;
   /** Root and extremum tolerance (s); default 0.005 s (the brief asks for 10 ms or better). */
   toleranceS?: number;
@@ -28,40 +44,93 @@ export interface FindPassesOptions {
 
 export const DEFAULT_EVENT_TOLERANCE_S = 0.005;
 
+/** The orbit a run uses for one element set: nodes tied to the grid (startS, stepS), or SGP4 at every instant. */
+export function createOrbit(elements: ElementSet | Propagator, grid: { startS: number; stepS: number }, exact = false): OrbitSource {
+  const prop = 'satrec' in elements ? elements : createPropagator(elements);
+  return exact ? exactOrbit(prop, grid.startS, grid.stepS) : interpolatedOrbit(prop, { originS: grid.startS, stepS: grid.stepS });
+}
+
+/** Scan step on the orbit's nodes: the rule's step rounded down to a multiple of the node spacing, or to a divisor of it. */
+export function nodeScanStepS(ruleStepS: number, nodeSpacingS: number): number {
+  if (!Number.isFinite(nodeSpacingS)) return ruleStepS;
+  return ruleStepS >= nodeSpacingS
+    ? Math.floor(ruleStepS / nodeSpacingS + 1e-9) * nodeSpacingS
+    : nodeSpacingS / Math.ceil(nodeSpacingS / ruleStepS - 1e-9);
+}
+
+/** One station's search over a window: the pieces are searched with `events`, joined with `assemblePasses`. */
+export interface PassSearch {
+  orbit: StateSource & { elements: ElementSet };
+  geo: StationGeometry;
+  grid: ScanGrid;
+  toleranceS: number;
+  /** Events of scan intervals [i0, i1) (see search.ts scanEvents). */
+  events(i0: number, i1: number): { events: CrossingEvent[]; firstAbove: boolean };
+  /** Scan indices [i0, i1) whose sample times lie in [fromS, toS) (the last piece takes toS = endS inclusive). */
+  range(fromS: number, toS: number): [number, number];
+}
+
+export function passSearch(orbit: OrbitSource, station: Station, startS: number, endS: number, opts: { scanStepS?: number; toleranceS?: number } = {}): PassSearch {
+  if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS)) {
+    throw new InputError(`findPasses: window end must be after its start (got ${startS} to ${endS} s)`);
+  }
+  const geo = createStationGeometry(station);
+  const tol = opts.toleranceS ?? DEFAULT_EVENT_TOLERANCE_S;
+  const step = opts.scanStepS ?? nodeScanStepS(passScanStepS(orbit.elements, maskMinimumDeg(geo.station.mask)), orbit.nodeSpacingS);
+  const grid = scanGrid(startS, endS, step);
+  const g = (t: number) => geo.elevationMinusMask(orbit, t);
+  return {
+    orbit, geo, grid, toleranceS: tol,
+    events: (i0, i1) => scanEvents(g, grid, i0, i1, tol),
+    range(fromS, toS) {
+      const idx = (t: number) => Math.min(grid.n, Math.max(0, Math.ceil((t - startS) / step - 1e-9)));
+      return [idx(fromS), toS >= endS ? grid.n : idx(toS)];
+    },
+  };
+}
+
+/** AOS/LOS intervals (not yet completed) from the events of every piece, in any order. */
+export function assemblePasses(search: PassSearch, events: CrossingEvent[], firstAbove: boolean): Crossing[] {
+  return assembleCrossings(events, firstAbove, search.grid.startS, search.grid.endS);
+}
+
+/** A pass from its AOS/LOS interval: peak elevation, TCA (minimum range) and the azimuths, by bracketed maximisation. */
+export function completePass(
+  orbit: StateSource & { elements: ElementSet }, geo: StationGeometry, c: Crossing, index: number, toleranceS = DEFAULT_EVENT_TOLERANCE_S,
+): Pass {
+  const la: LookAngles = { azimuthDeg: NaN, elevationDeg: NaN, rangeKm: NaN };
+  const elevation = (t: number) => geo.look(orbit, t, la).elevationDeg;
+  const negRange = (t: number) => -geo.look(orbit, t, la).rangeKm;
+  const azimuth = (t: number) => geo.look(orbit, t, la).azimuthDeg;
+  const peak = findMaximum(elevation, c.startS, c.endS, toleranceS);
+  const tca = findMaximum(negRange, c.startS, c.endS, toleranceS);
+  return {
+    index,
+    satellite: orbit.elements.name,
+    station: geo.station.name,
+    aosS: c.startS,
+    tcaS: tca.timeS,
+    losS: c.endS,
+    durationS: c.endS - c.startS,
+    maxElevationDeg: peak.value,
+    aosAzimuthDeg: azimuth(c.startS),
+    tcaAzimuthDeg: azimuth(tca.timeS),
+    losAzimuthDeg: azimuth(c.endS),
+    minRangeKm: -tca.value,
+    clippedStart: c.clippedStart,
+    clippedEnd: c.clippedEnd,
+  };
+}
+
 export function findPasses(options: FindPassesOptions): Pass[] {
-  const prop = options.propagator ?? (options.elements ? createPropagator(options.elements) : null);
-  if (!prop) throw new InputError('findPasses: no elements (allowed a propagator or an element set)');
+  const source = options.propagator ?? options.elements;
+  if (!options.orbit && !source) throw new InputError('findPasses: no elements (allowed an orbit, a propagator or an element set)');
   const { startS, endS } = options;
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS)) {
     throw new InputError(`findPasses: window end must be after its start (got ${startS} to ${endS} s)`);
   }
-  const geo = createStationGeometry(options.station);
-  const tol = options.toleranceS ?? DEFAULT_EVENT_TOLERANCE_S;
-  const step = options.scanStepS ?? passScanStepS(prop.elements, maskMinimumDeg(geo.station.mask));
-  const g = (t: number) => geo.elevationMinusMask(prop, t);
-  const crossings = findCrossings(g, startS, endS, step, tol);
-  const s = createGeometrySample();
-  const elevation = (t: number) => geo.sample(prop, t, s).elevationDeg;
-  const negRange = (t: number) => -geo.sample(prop, t, s).rangeKm;
-  const azimuth = (t: number) => geo.sample(prop, t, s).azimuthDeg;
-  return crossings.map((c, k) => {
-    const peak = findMaximum(elevation, c.startS, c.endS, tol);
-    const tca = findMaximum(negRange, c.startS, c.endS, tol);
-    return {
-      index: k + 1,
-      satellite: prop.elements.name,
-      station: geo.station.name,
-      aosS: c.startS,
-      tcaS: tca.timeS,
-      losS: c.endS,
-      durationS: c.endS - c.startS,
-      maxElevationDeg: peak.value,
-      aosAzimuthDeg: azimuth(c.startS),
-      tcaAzimuthDeg: azimuth(tca.timeS),
-      losAzimuthDeg: azimuth(c.endS),
-      minRangeKm: -tca.value,
-      clippedStart: c.clippedStart,
-      clippedEnd: c.clippedEnd,
-    };
-  });
+  const orbit = options.orbit ?? createOrbit(source!, { startS, stepS: options.gridStepS ?? 1 }, options.exactOrbit === true);
+  const search = passSearch(orbit, options.station, startS, endS, { scanStepS: options.scanStepS, toleranceS: options.toleranceS });
+  const { events, firstAbove } = search.events(0, search.grid.n);
+  return assemblePasses(search, events, firstAbove).map((c, k) => completePass(orbit, search.geo, c, k + 1, search.toleranceS));
 }

@@ -72,34 +72,56 @@ export function findRoot(g: (t: number) => number, a: number, b: number, ga: num
 }
 
 /**
- * Intervals of [startS, endS] where g ≥ 0. Cost: one evaluation per scan
- * step, plus a root search per crossing and an extremum search per local
- * extremum of the samples that stays on one side of zero.
+ * The coarse scan's sample times: T(i) = startS + i·stepS for i < n, T(n) = endS,
+ * n = ⌈(endS − startS)/stepS⌉ (at least 1). A fixed grid, so any piece of it
+ * can be searched on its own (`scanEvents`) and the pieces' events combined.
  */
-export function findCrossings(
-  g: (t: number) => number, startS: number, endS: number, scanStepS: number, toleranceS: number,
-): Crossing[] {
-  if (!(endS > startS)) return [];
-  if (!(scanStepS > 0) || !(toleranceS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
-  const n = Math.max(1, Math.ceil((endS - startS) / scanStepS));
-  const T = new Float64Array(n + 1);
-  const G = new Float64Array(n + 1);
-  for (let i = 0; i <= n; i++) {
-    T[i] = i === n ? endS : startS + i * scanStepS;
-    G[i] = g(T[i]);
+export interface ScanGrid { startS: number; endS: number; stepS: number; n: number }
+
+export function scanGrid(startS: number, endS: number, stepS: number): ScanGrid {
+  if (!(stepS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
+  return { startS, endS, stepS, n: Math.max(1, Math.ceil((endS - startS) / stepS)) };
+}
+
+export function scanTime(grid: ScanGrid, i: number): number {
+  return i === grid.n ? grid.endS : grid.startS + i * grid.stepS;
+}
+
+/** A crossing of zero: +1 rising (g becomes ≥ 0), −1 falling. */
+export interface CrossingEvent { t: number; dir: 1 | -1 }
+
+/**
+ * The events that scan intervals i0 … i1−1 and samples i0 … i1−1 (and sample
+ * n when i1 = n) contribute, and whether g ≥ 0 at sample i0: a root in every interval whose ends differ in
+ * sign, and a pair of roots around every sample extremum whose neighbours
+ * share its side of zero but whose bracketed extremum crosses it. Pieces
+ * [0, a), [a, b), …, [z, n) together give exactly the events of the whole grid.
+ */
+export function scanEvents(
+  g: (t: number) => number, grid: ScanGrid, i0: number, i1: number, toleranceS: number,
+): { events: CrossingEvent[]; firstAbove: boolean } {
+  if (!(toleranceS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
+  const { n } = grid;
+  const lo = Math.max(0, i0 - 1);
+  const hi = Math.min(n, i1 + 1);
+  const T = new Float64Array(hi - lo + 1);
+  const G = new Float64Array(hi - lo + 1);
+  for (let i = lo; i <= hi; i++) {
+    T[i - lo] = scanTime(grid, i);
+    G[i - lo] = g(T[i - lo]);
   }
-  // Events: +1 rising (g becomes ≥ 0), −1 falling.
-  const events: { t: number; dir: 1 | -1 }[] = [];
-  for (let i = 0; i < n; i++) {
-    const a = G[i] >= 0; const b = G[i + 1] >= 0;
-    if (a !== b) events.push({ t: findRoot(g, T[i], T[i + 1], G[i], G[i + 1], toleranceS), dir: b ? 1 : -1 });
+  const events: CrossingEvent[] = [];
+  for (let i = i0; i < Math.min(i1, n); i++) {
+    const a = i - lo;
+    if ((G[a] >= 0) !== (G[a + 1] >= 0)) events.push({ t: findRoot(g, T[a], T[a + 1], G[a], G[a + 1], toleranceS), dir: G[a + 1] >= 0 ? 1 : -1 });
   }
   // Hidden excursions: a sample extremum whose neighbours share its side of zero.
   const neg = (t: number) => -g(t);
-  for (let i = 0; i <= n; i++) {
-    const l = i > 0 ? i - 1 : i; const r = i < n ? i + 1 : i;
+  const last = i1 >= n ? n : i1 - 1;
+  for (let i = i0; i <= last; i++) {
+    const l = (i > 0 ? i - 1 : i) - lo; const r = (i < n ? i + 1 : i) - lo;
     if (l === r) continue;
-    const gi = G[i];
+    const gi = G[i - lo];
     const below = gi < 0 && G[l] < 0 && G[r] < 0;
     const above = gi >= 0 && G[l] >= 0 && G[r] >= 0;
     if (below && gi >= G[l] && gi >= G[r] && (gi > G[l] || gi > G[r])) {
@@ -116,12 +138,20 @@ export function findCrossings(
       }
     }
   }
-  events.sort((p, q) => p.t - q.t || q.dir - p.dir);
+  return { events, firstAbove: G[i0 - lo] >= 0 };
+}
+
+/**
+ * Intervals where g ≥ 0 from the events of the whole grid (any order) and the
+ * sign at the window start (`startsAbove`: g(startS) ≥ 0).
+ */
+export function assembleCrossings(events: CrossingEvent[], startsAbove: boolean, startS: number, endS: number): Crossing[] {
+  const sorted = [...events].sort((p, q) => p.t - q.t || q.dir - p.dir);
   const out: Crossing[] = [];
-  let open = G[0] >= 0;
+  let open = startsAbove;
   let openAt = startS;
   let clippedStart = open;
-  for (const ev of events) {
+  for (const ev of sorted) {
     if (ev.dir === 1 && !open) { open = true; openAt = ev.t; clippedStart = false; }
     else if (ev.dir === -1 && open) {
       out.push({ startS: openAt, endS: ev.t, clippedStart, clippedEnd: false });
@@ -130,4 +160,19 @@ export function findCrossings(
   }
   if (open) out.push({ startS: openAt, endS, clippedStart, clippedEnd: true });
   return out;
+}
+
+/**
+ * Intervals of [startS, endS] where g ≥ 0. Cost: one evaluation per scan
+ * step, plus a root search per crossing and an extremum search per local
+ * extremum of the samples that stays on one side of zero.
+ */
+export function findCrossings(
+  g: (t: number) => number, startS: number, endS: number, scanStepS: number, toleranceS: number,
+): Crossing[] {
+  if (!(endS > startS)) return [];
+  if (!(scanStepS > 0) || !(toleranceS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
+  const grid = scanGrid(startS, endS, scanStepS);
+  const { events, firstAbove } = scanEvents(g, grid, 0, grid.n, toleranceS);
+  return assembleCrossings(events, firstAbove, startS, endS);
 }
