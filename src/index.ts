@@ -12,4 +12,5 @@ export * from './budget/index.js';
 export * from './scenario/index.js';
 export * from './analysis/index.js';
 export * from './output/index.js';
+export * from './sweep/index.js';
 export * from './jobs/index.js';

@@ -22,7 +22,7 @@ import type { CaseBudget, LinkSpec } from '../budget/types.js';
 import { InputError } from '../errors.js';
 import { SECONDS_PER_DAY } from '../orbit/time.js';
 import type { DailyRow, Verdict } from './types.js';
-import { bestConstantMode, modeRatesBps, modeThresholdsDB } from './modes.js';
+import { bestConstantMode, createModeFit, modeRatesBps, modeThresholdsDB, type ModeFit } from './modes.js';
 import { utcDayLabel, utcDaysOfWindow, utcDayNumber } from './utcDay.js';
 
 /** Station label of network rows. */
@@ -76,11 +76,22 @@ export interface DailyAccumulator {
    * thresholds (network feeds: the chosen station's link of the same name).
    */
   add(timeS: number, dtS: number, c: DailyStepCase, link?: LinkSpec): void;
+  /**
+   * Steps from..to−1 of columns (step i at originS + (k0 + i)·dtS), as `add` would take
+   * them one by one: `usable` (1/0), information rate (b/s) and Es/N0 (dB);
+   * `link` as in `add`.
+   */
+  addColumns(originS: number, k0: number, dtS: number, from: number, to: number, usable: Uint8Array, rateBps: Float64Array, esN0DB: Float64Array, link?: LinkSpec): void;
   /** Close the pass whose steps were just added: counted on the day of `aosS`. */
   endPass(aosS: number, verdict: Verdict): void;
   rows(): DailyRow[];
   /** The sums and usable runs so far (created with `exportable`; no pass may be open). */
   exportState(): DailyAccumulatorState;
+  /**
+   * exportState, then empty the accumulator (sums, runs and gap tracking) so
+   * the next chunk can be fed into it: one accumulator reused chunk after chunk.
+   */
+  takeState(): DailyAccumulatorState;
   /**
    * Add a chunk's state. Chunks must come in time order and not overlap; the
    * sums add, the runs feed the gap tracking as their steps would have.
@@ -148,56 +159,91 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
     lastUsableEndS = Math.max(lastUsableEndS, endS2);
   };
 
-  // Current pass: per day touched, fit time of each mode (adaptive links only).
-  let pending = new Map<number, Float64Array>();
+  // Current pass: per link and day touched, the mode fit times (adaptive links only).
+  let pending = new Map<LinkSpec, Map<number, ModeFit>>();
   let pendingSteps = 0;
+  let fitDay = -1;
+  let fitAcc: ModeFit | null = null;
+  let fitLink: LinkSpec | null = null;
+  const fitFor = (l: LinkSpec, d: number): ModeFit => {
+    let th = thresholdCache.get(l);
+    if (!th) {
+      th = modeThresholdsDB(l);
+      if (th.length !== nModes) throw new Error(`daily accumulator ${station}/${link.name}: link ${l.station}/${l.name} has a different mode table`);
+      thresholdCache.set(l, th);
+    }
+    let days = pending.get(l);
+    if (!days) pending.set(l, (days = new Map()));
+    let f = days.get(d);
+    if (!f) days.set(d, (f = createModeFit(th)));
+    return f;
+  };
+
+  /** One step: the whole per-step rule. */
+  function step1(timeS: number, dtS: number, usable: boolean, rateBps: number, es: number, l: LinkSpec): void {
+    pendingSteps++;
+    const d = dayIndex(timeS);
+    const b = bins[d];
+    if (usable) {
+      if (exportable) {
+        const n = runs.length;
+        if (n === 0 || timeS - runs[n - 1] > CONTIGUOUS_EPS_S) runs.push(timeS, timeS + dtS);
+        else if (timeS + dtS > runs[n - 1]) runs[n - 1] = timeS + dtS;
+        touch(d);
+      }
+      const endT = timeS + dtS;
+      // A step continuing the last usable interval within its day leaves the gaps as they are.
+      if (d === gapDay && timeS >= lastUsableStartS && timeS - lastUsableEndS <= CONTIGUOUS_EPS_S && timeS - lastUsableEndS >= -CONTIGUOUS_EPS_S) {
+        lastUsableStartS = timeS;
+        if (endT > lastUsableEndS) lastUsableEndS = endT;
+      } else {
+        usableAt(timeS, d, endT);
+      }
+      b.usableS += dtS;
+      if (adaptive) b.adaptiveBits += rateBps * dtS;
+      else b.fixedBits += fixedRateBps * dtS;
+    }
+    if (adaptive) {
+      if (d !== fitDay || l !== fitLink || !fitAcc) { fitAcc = fitFor(l, d); fitDay = d; fitLink = l; }
+      fitAcc.add(es, dtS);
+    }
+  }
 
   return {
     add(timeS, dtS, c, stepLink) {
-      pendingSteps++;
-      const d = dayIndex(timeS);
-      const b = bins[d];
-      if (c.usable) {
-        if (exportable) {
-          const n = runs.length;
-          if (n === 0 || timeS - runs[n - 1] > CONTIGUOUS_EPS_S) runs.push(timeS, timeS + dtS);
-          else if (timeS + dtS > runs[n - 1]) runs[n - 1] = timeS + dtS;
-          touch(d);
-        }
-        usableAt(timeS, d, timeS + dtS);
-        b.usableS += dtS;
-        if (adaptive) b.adaptiveBits += c.information_rate_bps * dtS;
-        else b.fixedBits += fixedRateBps * dtS;
-      }
-      if (adaptive) {
-        const l = stepLink ?? link;
-        let th = thresholdCache.get(l);
-        if (!th) {
-          th = modeThresholdsDB(l);
-          if (th.length !== nModes) throw new Error(`daily accumulator ${station}/${link.name}: link ${l.station}/${l.name} has a different mode table`);
-          thresholdCache.set(l, th);
-        }
-        let fit = pending.get(d);
-        if (!fit) pending.set(d, (fit = new Float64Array(nModes)));
-        const es = c.es_over_n0_db;
-        for (let i = 0; i < nModes; i++) if (es >= th[i]) fit[i] += dtS;
-      }
+      step1(timeS, dtS, c.usable, c.information_rate_bps, c.es_over_n0_db, stepLink ?? link);
+    },
+    addColumns(originS, k0, dtS, from, to, usable, rateBps, esN0DB, stepLink) {
+      const l = stepLink ?? link;
+      for (let i = from; i < to; i++) step1(originS + (k0 + i) * dtS, dtS, usable[i] === 1, rateBps[i], esN0DB[i], l);
     },
     endPass(aosS, verdict) {
+      // Fit time per day touched (every link the pass's steps came from, together).
+      const perDay = new Map<number, Float64Array>();
+      for (const days of pending.values()) {
+        for (const [d, f] of days) {
+          const t = f.fitTimeS();
+          const cur = perDay.get(d);
+          if (!cur) perDay.set(d, t);
+          else for (let i = 0; i < nModes; i++) cur[i] += t[i];
+        }
+      }
+      const dayList = [...perDay.keys()].sort((a, b) => a - b);
       if (exportable) {
         touch(dayIndex(aosS));
-        for (const d of pending.keys()) touch(d);
+        for (const d of dayList) touch(d);
       }
       const b = bins[dayIndex(aosS)];
       b.passes++;
       if (verdict === 'usable') b.usablePasses++;
-      if (adaptive && pending.size > 0) {
+      if (adaptive && dayList.length > 0) {
         const total = new Float64Array(nModes);
-        for (const fit of pending.values()) for (let i = 0; i < nModes; i++) total[i] += fit[i];
+        for (const d of dayList) { const fit = perDay.get(d)!; for (let i = 0; i < nModes; i++) total[i] += fit[i]; }
         const best = bestConstantMode(rates, total);
-        if (best >= 0) for (const [d, fit] of pending) bins[d].fixedBits += rates[best] * fit[best];
+        if (best >= 0) for (const d of dayList) bins[d].fixedBits += rates[best] * perDay.get(d)![best];
       }
       pending = new Map();
+      fitAcc = null; fitLink = null; fitDay = -1;
       pendingSteps = 0;
     },
     exportState() {
@@ -215,6 +261,18 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
         st.passes[i] = b.passes; st.usablePasses[i] = b.usablePasses; st.usableS[i] = b.usableS;
         st.fixedBits[i] = b.fixedBits; st.adaptiveBits[i] = b.adaptiveBits;
       }
+      return st;
+    },
+    takeState() {
+      const st = this.exportState();
+      const lo = st.firstDay - firstDay;
+      for (let i = 0; i < st.passes.length; i++) {
+        const b = bins[lo + i];
+        b.passes = 0; b.usablePasses = 0; b.usableS = 0; b.fixedBits = 0; b.adaptiveBits = 0; b.longestGapS = 0;
+      }
+      runs.length = 0;
+      minDay = count; maxDay = -1;
+      gapDay = 0; lastUsableEndS = -Infinity; lastUsableStartS = -Infinity;
       return st;
     },
     mergeState(st) {

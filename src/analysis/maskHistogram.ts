@@ -43,13 +43,28 @@ export interface MaskHistogram {
    */
   readonly keyholeS: Float64Array;
   add(elevationDeg: number, dtS: number, usable: boolean, rateBps: number, mountLimited?: boolean): void;
+  /** The bin of an elevation (as `add` finds it), −1 for NaN: one search per station step, shared by its links and cases. */
+  binOf(elevationDeg: number): number;
+  /** `add` into a bin found with `binOf` (k ≥ 0). */
+  addToBin(k: number, dtS: number, usable: boolean, rateBps: number, mountLimited: boolean): void;
   /** The bin arrays (shared, not copied): what a chunk of a parallel run hands back. */
   exportState(): MaskHistogramState;
+  /** The bins touched since the last take, copied (firstBin on), and those bins emptied: one histogram reused chunk after chunk. */
+  takeState(): MaskHistogramState;
   /** Add another histogram's bins (same binDeg), bin by bin. */
   mergeState(state: MaskHistogramState): void;
 }
 
-export interface MaskHistogramState { binDeg: number; timeS: Float64Array; usableS: Float64Array; volumeBits: Float64Array; keyholeS: Float64Array }
+/** Bins firstBin … firstBin + length − 1 (firstBin 0 and every bin when absent). */
+export interface MaskHistogramState { binDeg: number; firstBin?: number; timeS: Float64Array; usableS: Float64Array; volumeBits: Float64Array; keyholeS: Float64Array }
+
+/** Bin edges by bin width, shared by every histogram of that width (the values `edgeDeg` reports). */
+const edgeCache = new Map<number, Float64Array>();
+function edgesFor(binDeg: number, bins: number, edgeDeg: (k: number) => number): Float64Array {
+  let e = edgeCache.get(binDeg);
+  if (!e) { e = Float64Array.from({ length: bins + 1 }, (_, k) => edgeDeg(k)); edgeCache.set(binDeg, e); }
+  return e;
+}
 
 export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHistogram {
   const binDeg = options.binDeg ?? 0.1;
@@ -58,16 +73,33 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
   }
   const bins = Math.ceil((MAX_DEG - MIN_DEG) / binDeg - 1e-9);
   const edgeDeg = (k: number) => Math.round((MIN_DEG + k * binDeg) * 1e9) / 1e9;
+  const edges = edgesFor(binDeg, bins, edgeDeg);
   const timeS = new Float64Array(bins);
   const usableS = new Float64Array(bins);
   const volumeBits = new Float64Array(bins);
   const keyholeS = new Float64Array(bins);
   const binOf = (e: number) => {
+    if (Number.isNaN(e)) return -1;
     let k = Math.floor((e - MIN_DEG) / binDeg);
     // Rounding of the division can land one bin off; settle it against the same edges we report.
-    if (k + 1 < bins && edgeDeg(k + 1) <= e) k++;
-    if (k > 0 && edgeDeg(k) > e) k--;
+    if (k + 1 < bins && edges[k + 1] <= e) k++;
+    if (k > 0 && edges[k] > e) k--;
     return Math.min(bins - 1, Math.max(0, k));
+  };
+  let touchedLo = bins, touchedHi = -1;
+  const addToBin = (k: number, dtS: number, usable: boolean, rateBps: number, mountLimited: boolean) => {
+    if (!(dtS > 0)) return;
+    if (k < touchedLo) touchedLo = k;
+    if (k > touchedHi) touchedHi = k;
+    if (mountLimited && !usable) {
+      keyholeS[k] += dtS;
+      return;
+    }
+    timeS[k] += dtS;
+    if (usable) {
+      usableS[k] += dtS;
+      volumeBits[k] += rateBps * dtS;
+    }
   };
   return {
     binDeg,
@@ -80,29 +112,35 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
     usableS,
     volumeBits,
     keyholeS,
+    binOf,
+    addToBin,
     add(elevationDeg, dtS, usable, rateBps, mountLimited = false) {
-      if (Number.isNaN(elevationDeg) || !(dtS > 0)) return;
       const k = binOf(elevationDeg);
-      if (mountLimited && !usable) {
-        keyholeS[k] += dtS;
-        return;
-      }
-      timeS[k] += dtS;
-      if (usable) {
-        usableS[k] += dtS;
-        volumeBits[k] += rateBps * dtS;
-      }
+      if (k >= 0) addToBin(k, dtS, usable, rateBps, mountLimited);
     },
     exportState() {
       return { binDeg, timeS, usableS, volumeBits, keyholeS };
     },
+    takeState() {
+      const lo = touchedHi < 0 ? 0 : touchedLo, hi = touchedHi < 0 ? -1 : touchedHi;
+      const st = {
+        binDeg, firstBin: lo, timeS: timeS.slice(lo, hi + 1), usableS: usableS.slice(lo, hi + 1),
+        volumeBits: volumeBits.slice(lo, hi + 1), keyholeS: keyholeS.slice(lo, hi + 1),
+      };
+      if (hi >= lo) { timeS.fill(0, lo, hi + 1); usableS.fill(0, lo, hi + 1); volumeBits.fill(0, lo, hi + 1); keyholeS.fill(0, lo, hi + 1); }
+      touchedLo = bins; touchedHi = -1;
+      return st;
+    },
     mergeState(st) {
-      if (st.binDeg !== binDeg || st.timeS.length !== bins) throw new Error(`mask histogram: cannot merge ${st.binDeg}° bins into ${binDeg}° bins`);
-      for (let k = 0; k < bins; k++) {
-        timeS[k] += st.timeS[k];
-        usableS[k] += st.usableS[k];
-        volumeBits[k] += st.volumeBits[k];
-        keyholeS[k] += st.keyholeS[k];
+      const lo = st.firstBin ?? 0;
+      const n = st.timeS.length;
+      if (st.binDeg !== binDeg || lo < 0 || lo + n > bins || (st.firstBin === undefined && n !== bins)) throw new Error(`mask histogram: cannot merge ${st.binDeg}° bins into ${binDeg}° bins`);
+      for (let i = 0; i < n; i++) {
+        const k = lo + i;
+        timeS[k] += st.timeS[i];
+        usableS[k] += st.usableS[i];
+        volumeBits[k] += st.volumeBits[i];
+        keyholeS[k] += st.keyholeS[i];
       }
     },
   };

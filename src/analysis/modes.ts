@@ -5,11 +5,21 @@
  */
 import type { AdaptiveMode, LinkSpec } from '../budget/types.js';
 
-/** Fit thresholds in Es/N0 (dB) per mode: required Es/N0 + required margin + implementation loss. */
+const thresholdsCache = new WeakMap<LinkSpec, { key: string; th: Float64Array }>();
+
+/**
+ * Fit thresholds in Es/N0 (dB) per mode: required Es/N0 + required margin +
+ * implementation loss. The same array for the same link (do not modify it).
+ */
 export function modeThresholdsDB(link: LinkSpec): Float64Array {
   if (link.modcod.kind !== 'adaptive') return new Float64Array(0);
   const extra = link.requiredMarginDB + link.implementationLossDB;
-  return Float64Array.from(link.modcod.modes, (m: AdaptiveMode) => m.requiredEsN0DB + extra);
+  const key = `${extra}|${link.modcod.modes.map((m) => m.requiredEsN0DB).join(',')}`;
+  const hit = thresholdsCache.get(link);
+  if (hit && hit.key === key) return hit.th;
+  const th = Float64Array.from(link.modcod.modes, (m: AdaptiveMode) => m.requiredEsN0DB + extra);
+  thresholdsCache.set(link, { key, th });
+  return th;
 }
 
 /** Information rate of each mode (b/s): R_s · η. */
@@ -36,4 +46,62 @@ export function bestConstantMode(ratesBps: Float64Array, fitTimeS: Float64Array)
     }
   }
   return best;
+}
+
+/**
+ * Time each mode fits (Es/N0 ≥ its threshold), accumulated by rank: a step
+ * with r of the (sorted) thresholds at or below its Es/N0 adds its Δt to rank
+ * r, and mode i's fit time is the time of every rank above its place in the
+ * order. One search per step (hunting from the last rank: Es/N0 moves
+ * slowly within a pass) instead of one comparison per mode.
+ */
+export interface ModeFit {
+  add(esN0DB: number, dtS: number): void;
+  /** Fit time per mode (s), in the link's mode order. */
+  fitTimeS(): Float64Array;
+  /** Add another accumulator's times (same thresholds). */
+  addFrom(other: ModeFit): void;
+  /** Zero the times. */
+  clear(): void;
+  /** Time per rank (0 … modes), for addFrom. */
+  readonly rankS: Float64Array;
+}
+
+/** The sorted thresholds and their order, once per thresholds array (a pass creates one fit per case and day). */
+const sortedCache = new WeakMap<Float64Array, { order: Int32Array; sorted: Float64Array }>();
+
+export function createModeFit(thresholdsDB: Float64Array): ModeFit {
+  const n = thresholdsDB.length;
+  let spec = sortedCache.get(thresholdsDB);
+  if (!spec) {
+    const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => thresholdsDB[a] - thresholdsDB[b] || a - b);
+    spec = { order, sorted: Float64Array.from(order, (i) => thresholdsDB[i]) };
+    sortedCache.set(thresholdsDB, spec);
+  }
+  const { order, sorted } = spec;
+  const rankS = new Float64Array(n + 1);
+  let r = 0;
+  return {
+    rankS,
+    add(es, dt) {
+      // r = number of sorted thresholds ≤ es (NaN: none).
+      if (!(es === es)) { rankS[0] += dt; return; }
+      while (r > 0 && !(sorted[r - 1] <= es)) r--;
+      while (r < n && sorted[r] <= es) r++;
+      rankS[r] += dt;
+    },
+    fitTimeS() {
+      const out = new Float64Array(n);
+      let above = 0;
+      for (let p = n - 1; p >= 0; p--) {
+        above += rankS[p + 1];
+        out[order[p]] = above;
+      }
+      return out;
+    },
+    addFrom(other) {
+      for (let i = 0; i <= n; i++) rankS[i] += other.rankS[i];
+    },
+    clear() { rankS.fill(0); },
+  };
 }

@@ -22,35 +22,53 @@ export interface NetworkCandidate {
   priority: number;
 }
 
+/**
+ * A station's place in the policy's order, as two keys compared in turn
+ * (lower first): `priority` — [0, index in policy.order] for listed stations,
+ * [1, priority] for the others; `best-margin` — [priority, 0] (the tie-break
+ * after rate and margin).
+ */
+export function stationRank(policy: NetworkPolicy, station: string, priority: number): [number, number] {
+  if (policy.kind === 'priority') {
+    const i = policy.order.indexOf(station);
+    return i >= 0 ? [0, i] : [1, priority];
+  }
+  return [priority, 0];
+}
+
+/** Can this step carry the network at all: usable (and, for best-margin, a margin to compare). */
+export function networkEligible(policy: NetworkPolicy, usable: boolean, marginDB: number): boolean {
+  return usable && (policy.kind === 'priority' || !Number.isNaN(marginDB));
+}
+
+/**
+ * Does candidate a beat the best so far, b (both eligible)? best-margin:
+ * higher rate, then larger margin, then lower rank; priority: lower rank. Strict,
+ * so among equals the first candidate stays.
+ */
+export function networkOutranks(
+  policy: NetworkPolicy,
+  aRateBps: number, aMarginDB: number, aRank0: number, aRank1: number,
+  bRateBps: number, bMarginDB: number, bRank0: number, bRank1: number,
+): boolean {
+  if (policy.kind === 'priority') return aRank0 < bRank0 || (aRank0 === bRank0 && aRank1 < bRank1);
+  return aRateBps > bRateBps || (aRateBps === bRateBps && (aMarginDB > bMarginDB || (aMarginDB === bMarginDB && aRank0 < bRank0)));
+}
+
 /** Index of the chosen candidate, or −1 when none is usable. */
 export function chooseNetworkStation(
   candidates: readonly NetworkCandidate[],
   policy: NetworkPolicy = { kind: 'best-margin' },
 ): number {
   let best = -1;
-  if (policy.kind === 'priority') {
-    const rank = (c: NetworkCandidate) => {
-      const i = policy.order.indexOf(c.station);
-      return i >= 0 ? [0, i] : [1, c.priority];
-    };
-    let bestRank: number[] = [];
-    candidates.forEach((c, i) => {
-      if (!c.usable) return;
-      const r = rank(c);
-      if (best < 0 || r[0] < bestRank[0] || (r[0] === bestRank[0] && r[1] < bestRank[1])) {
-        best = i;
-        bestRank = r;
-      }
-    });
-    return best;
-  }
-  candidates.forEach((c, i) => {
-    if (!c.usable || Number.isNaN(c.marginDB)) return;
+  let br0 = 0, br1 = 0;
+  for (let i = 0; i < candidates.length; i++) {
+    const c = candidates[i];
+    if (!networkEligible(policy, c.usable, c.marginDB)) continue;
+    const [r0, r1] = stationRank(policy, c.station, c.priority);
+    if (best < 0) { best = i; br0 = r0; br1 = r1; continue; }
     const b = candidates[best];
-    if (
-      best < 0 || c.rateBps > b.rateBps
-      || (c.rateBps === b.rateBps && (c.marginDB > b.marginDB || (c.marginDB === b.marginDB && c.priority < b.priority)))
-    ) best = i;
-  });
+    if (networkOutranks(policy, c.rateBps, c.marginDB, r0, r1, b.rateBps, b.marginDB, br0, br1)) { best = i; br0 = r0; br1 = r1; }
+  }
   return best;
 }

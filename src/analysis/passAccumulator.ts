@@ -12,7 +12,8 @@
  */
 import type { CaseBudget, LinkSpec, StepBudget, WeatherCase } from '../budget/types.js';
 import type { PassCaseSummary, PassLinkSummary } from './types.js';
-import { bestConstantMode, modeRatesBps, modeThresholdsDB } from './modes.js';
+import type { LinkColumns } from '../budget/linkColumns.js';
+import { bestConstantMode, createModeFit, modeRatesBps, modeThresholdsDB, type ModeFit } from './modes.js';
 import { checkVerdictRule, DEFAULT_VERDICT_RULE, judgePass, type VerdictRule } from './verdict.js';
 
 /** The pass a summary is about: the pass fields of PassLinkSummary (durationS, time above the mask, is the verdict's reference). */
@@ -29,6 +30,12 @@ export interface PassAccumulatorOptions {
 
 export interface PassAccumulator {
   add(timeS: number, dtS: number, elevationDeg: number, step: StepBudget): void;
+  /**
+   * Entries [from, to) of a link's columns, entry i at time originS + (k0 + i)·dtS
+   * (a grid's times; case columns in the accumulator's weather-case order).
+   * The same per-step rule as `add`.
+   */
+  addColumns(cols: LinkColumns, from: number, to: number, originS: number, k0: number, dtS: number): void;
   finish(): PassLinkSummary;
 }
 
@@ -46,7 +53,8 @@ interface CaseState {
   marginSteps: number;
   marginTimeS: number;
   adaptiveBits: number;
-  modeFitS: Float64Array;
+  /** Time per rank (number of mode thresholds ≤ Es/N0), see ModeFit. */
+  fit: ModeFit;
 }
 
 function findCase(step: StepBudget, state: CaseState): CaseBudget {
@@ -77,40 +85,58 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
     marginSteps: 0,
     marginTimeS: 0,
     adaptiveBits: 0,
-    modeFitS: new Float64Array(thresholds.length),
+    fit: createModeFit(thresholds),
   }));
   let steps = 0;
   let lastTimeS = -Infinity;
   let finished = false;
 
+  /** One step of one case: the whole per-step rule. */
+  function step1(s: CaseState, timeS: number, dtS: number, m: number, usable: boolean, rateBps: number, es: number): void {
+    if (!Number.isNaN(m)) {
+      if (m < s.minMarginDB) s.minMarginDB = m;
+      if (m > s.maxMarginDB) s.maxMarginDB = m;
+      s.marginTimeSum += m * dtS;
+      s.marginTimeS += dtS;
+      s.marginSum += m;
+      s.marginSteps++;
+    }
+    if (usable) {
+      if (s.usableStartS === null) s.usableStartS = timeS;
+      s.usableEndS = timeS;
+      s.usableS += dtS;
+      if (adaptive) s.adaptiveBits += rateBps * dtS;
+    }
+    if (adaptive) s.fit.add(es, dtS);
+  }
+
+  function checkTime(timeS: number): void {
+    if (finished) throw new Error(`pass accumulator ${pass.passId}: add() after finish()`);
+    if (timeS < lastTimeS) throw new Error(`pass accumulator ${pass.passId}: step at ${timeS} s is before ${lastTimeS} s`);
+  }
+
   return {
     add(timeS, dtS, _elevationDeg, step) {
-      if (finished) throw new Error(`pass accumulator ${pass.passId}: add() after finish()`);
-      if (timeS < lastTimeS) throw new Error(`pass accumulator ${pass.passId}: step at ${timeS} s is before ${lastTimeS} s`);
+      checkTime(timeS);
       lastTimeS = timeS;
       steps++;
       for (const s of states) {
         const c = findCase(step, s);
-        const m = c.margin_db;
-        if (!Number.isNaN(m)) {
-          if (m < s.minMarginDB) s.minMarginDB = m;
-          if (m > s.maxMarginDB) s.maxMarginDB = m;
-          s.marginTimeSum += m * dtS;
-          s.marginTimeS += dtS;
-          s.marginSum += m;
-          s.marginSteps++;
-        }
-        if (c.usable) {
-          if (s.usableStartS === null) s.usableStartS = timeS;
-          s.usableEndS = timeS;
-          s.usableS += dtS;
-          if (adaptive) s.adaptiveBits += c.information_rate_bps * dtS;
-        }
-        if (adaptive) {
-          const es = c.es_over_n0_db;
-          for (let i = 0; i < thresholds.length; i++) if (es >= thresholds[i]) s.modeFitS[i] += dtS;
-        }
+        step1(s, timeS, dtS, c.margin_db, c.usable, c.information_rate_bps, c.es_over_n0_db);
       }
+    },
+    addColumns(cols, from, to, originS, k0, dtS) {
+      if (to <= from) return;
+      checkTime(originS + (k0 + from) * dtS);
+      if (cols.cases.length !== states.length) throw new Error(`pass accumulator ${pass.passId}: columns have ${cols.cases.length} weather cases, expected ${states.length}`);
+      for (let k = 0; k < states.length; k++) {
+        const s = states[k];
+        const c = cols.cases[k];
+        const margin = c.marginDB, usable = c.usable, rate = c.informationRateBps, es = c.esN0DB;
+        for (let i = from; i < to; i++) step1(s, originS + (k0 + i) * dtS, dtS, margin[i], usable[i] === 1, rate[i], es[i]);
+      }
+      steps += to - from;
+      lastTimeS = originS + (k0 + to - 1) * dtS;
     },
     finish() {
       finished = true;
@@ -119,8 +145,9 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
         if (link.modcod.kind === 'fixed') {
           fixedVolumeBits = link.modcod.bitRateBps * s.usableS;
         } else {
-          const best = bestConstantMode(rates, s.modeFitS);
-          fixedVolumeBits = best < 0 ? 0 : rates[best] * s.modeFitS[best];
+          const fitS = s.fit.fitTimeS();
+          const best = bestConstantMode(rates, fitS);
+          fixedVolumeBits = best < 0 ? 0 : rates[best] * fitS[best];
         }
         const { verdict, verdictRule } = judgePass(s.usableS, pass.durationS, s.usableStartS !== null, rule);
         // Time-weighted mean; falls back to the plain mean if every Δt was 0, NaN without steps.

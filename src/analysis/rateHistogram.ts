@@ -36,13 +36,27 @@ export interface RateHistogram {
   /** Time with C/N0 below minDBHz or NaN (s): never closes. */
   readonly underflowS: number;
   add(cOverN0DBHz: number, dtS: number): void;
+  /** `add` for entries [from, to) of a column. */
+  addColumn(cOverN0DBHz: Float64Array, from: number, to: number, dtS: number): void;
   /** The bins (shared, not copied) and the underflow: what a chunk of a parallel run hands back. */
   exportState(): RateHistogramState;
   /** Add another histogram's bins (same binning), bin by bin. */
   mergeState(state: RateHistogramState): void;
+  /** The bins touched since the last take, copied (firstBin on), and the histogram emptied: one histogram reused chunk after chunk. */
+  takeState(): RateHistogramState;
 }
 
-export interface RateHistogramState { binDB: number; minDBHz: number; timeS: Float64Array; underflowS: number }
+/** Bins firstBin … firstBin + length − 1 (firstBin 0 and every bin when absent). */
+export interface RateHistogramState { binDB: number; minDBHz: number; firstBin?: number; timeS: Float64Array; underflowS: number }
+
+/** Bin edges by binning, shared by every histogram with it (the values `edgeDBHz` reports). */
+const edgeCache = new Map<string, Float64Array>();
+function edgesFor(binDB: number, minDBHz: number, bins: number, edgeDBHz: (k: number) => number): Float64Array {
+  const key = `${binDB}|${minDBHz}|${bins}`;
+  let e = edgeCache.get(key);
+  if (!e) { e = Float64Array.from({ length: bins + 1 }, (_, k) => edgeDBHz(k)); edgeCache.set(key, e); }
+  return e;
+}
 
 export function createRateHistogram(options: RateHistogramOptions = {}): RateHistogram {
   const binDB = options.binDB ?? 0.01;
@@ -55,7 +69,23 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
   const bins = Math.ceil((maxDBHz - minDBHz) / binDB - 1e-9) + 1;
   const edgeDBHz = (k: number) => Math.round((minDBHz + k * binDB) * 1e9) / 1e9;
   const timeS = new Float64Array(bins);
+  const edges = edgesFor(binDB, minDBHz, bins, edgeDBHz);
   let underflowS = 0;
+  let touchedLo = bins, touchedHi = -1;
+  const add = (cOverN0DBHz: number, dtS: number): void => {
+    if (!(dtS > 0)) return;
+    if (!(cOverN0DBHz >= minDBHz)) {
+      underflowS += dtS;
+      return;
+    }
+    let k = Math.min(bins - 1, Math.floor((cOverN0DBHz - minDBHz) / binDB));
+    // Settle rounding against the reported edges: the lower edge must not exceed the value.
+    if (k + 1 < bins && edges[k + 1] <= cOverN0DBHz) k++;
+    if (k > 0 && edges[k] > cOverN0DBHz) k--;
+    if (k < touchedLo) touchedLo = k;
+    if (k > touchedHi) touchedHi = k;
+    timeS[k] += dtS;
+  };
   return {
     binDB,
     minDBHz,
@@ -68,24 +98,28 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
     get underflowS() {
       return underflowS;
     },
-    add(cOverN0DBHz, dtS) {
-      if (!(dtS > 0)) return;
-      if (!(cOverN0DBHz >= minDBHz)) {
-        underflowS += dtS;
-        return;
-      }
-      let k = Math.min(bins - 1, Math.floor((cOverN0DBHz - minDBHz) / binDB));
-      // Settle rounding against the reported edges: the lower edge must not exceed the value.
-      if (k + 1 < bins && edgeDBHz(k + 1) <= cOverN0DBHz) k++;
-      if (k > 0 && edgeDBHz(k) > cOverN0DBHz) k--;
-      timeS[k] += dtS;
+    add,
+    addColumn(cOverN0DBHz, from, to, dtS) {
+      for (let i = from; i < to; i++) add(cOverN0DBHz[i], dtS);
     },
     exportState() {
       return { binDB, minDBHz, timeS, underflowS };
     },
+    takeState() {
+      const lo = touchedHi < 0 ? 0 : touchedLo, hi = touchedHi < 0 ? -1 : touchedHi;
+      const st = { binDB, minDBHz, firstBin: lo, timeS: timeS.slice(lo, hi + 1), underflowS };
+      if (hi >= lo) timeS.fill(0, lo, hi + 1);
+      underflowS = 0;
+      touchedLo = bins; touchedHi = -1;
+      return st;
+    },
     mergeState(st) {
-      if (st.binDB !== binDB || st.minDBHz !== minDBHz || st.timeS.length !== bins) throw new Error('rate histogram: cannot merge a histogram with other bins');
-      for (let k = 0; k < bins; k++) timeS[k] += st.timeS[k];
+      const lo = st.firstBin ?? 0;
+      const n = st.timeS.length;
+      if (st.binDB !== binDB || st.minDBHz !== minDBHz || lo < 0 || lo + n > bins || (st.firstBin === undefined && n !== bins)) {
+        throw new Error('rate histogram: cannot merge a histogram with other bins');
+      }
+      for (let i = 0; i < n; i++) timeS[lo + i] += st.timeS[i];
       underflowS += st.underflowS;
     },
   };

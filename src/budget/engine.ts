@@ -89,7 +89,7 @@ export interface LinkEngine {
   evaluate(sample: GeometrySample, out?: StepBudget): StepBudget;
   /**
    * Evaluate a run of steps of one pass, in time order: satellite entries
-   * satFrom … satFrom+n−1 (times sat.t0S + index·sat.stepS) and station entries
+   * satFrom … satFrom+n−1 (see SatelliteColumns for their times) and station entries
    * 0 … n−1, into `out`. With `full` false only what the summaries need is
    * filled per case (total attenuation, G/T, C/N0, Es/N0, Eb/N0, margin,
    * usable, mode, rate); the individual atmospheric and noise terms are not.
@@ -297,7 +297,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
       for (let i = 0; i < n; i++) {
         let lag = 0;
         if (rateLimited) {
-          stepMount(mount, sat.t0S + (satFrom + i) * sat.stepS, az[i], appEl[i], maxAzRate, maxElRate);
+          stepMount(mount, sat.originS + (sat.k0 + satFrom + i) * sat.stepS, az[i], appEl[i], maxAzRate, maxElRate);
           lag = mount.lagDeg;
           out.mountLimited[i] = mount.limited ? 1 : 0;
         } else {
@@ -396,7 +396,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     const t = sat1.teme;
     const r = s.satPositionTemeKm, v = s.satVelocityTemeKmS;
     t.rx[0] = r[0]; t.ry[0] = r[1]; t.rz[0] = r[2]; t.vx[0] = v[0]; t.vy[0] = v[1]; t.vz[0] = v[2];
-    sat1.n = 1; sat1.t0S = s.timeS; sat1.stepS = 0;
+    sat1.n = 1; sat1.originS = s.timeS; sat1.k0 = 0; sat1.stepS = 0;
     stn1.azimuthDeg[0] = s.azimuthDeg; stn1.elevationDeg[0] = s.elevationDeg; stn1.apparentElevationDeg[0] = s.apparentElevationDeg;
     stn1.rangeKm[0] = s.rangeKm; stn1.rangeRateKmS[0] = s.rangeRateKmS; stn1.rangeAccelKmS2[0] = s.rangeAccelKmS2;
     const u = lineOfSightTeme(s);

@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { loadScenario } from '../scenario/index.js';
 import { formatRunSummary, runScenario } from '../jobs/run.js';
-import { checkWorkers } from '../jobs/workerRun.js';
+import { checkWorkers } from '../sweep/parallel.js';
 
 export function register(program: Command): void {
   program

@@ -24,8 +24,9 @@ export interface SatelliteColumns {
   capacity: number;
   /** Number of valid entries. */
   n: number;
-  /** Unix time (s) of entry 0 and the step (s): entry i is at t0S + i·stepS (grid times). */
-  t0S: number;
+  /** Entry i is at originS + (k0 + i)·stepS: grid time k0 + i of a grid from originS (one instant: k0 = 0, stepS = 0). */
+  originS: number;
+  k0: number;
   stepS: number;
   teme: StateColumns;
   cosG: Float64Array; sinG: Float64Array;
@@ -40,14 +41,14 @@ export interface SatelliteColumns {
 export function createSatelliteColumns(capacity: number): SatelliteColumns {
   const f = () => new Float64Array(capacity);
   return {
-    capacity, n: 0, t0S: NaN, stepS: NaN, teme: createStateColumns(capacity), cosG: f(), sinG: f(),
+    capacity, n: 0, originS: NaN, k0: 0, stepS: NaN, teme: createStateColumns(capacity), cosG: f(), sinG: f(),
     ex: f(), ey: f(), ez: f(), evx: f(), evy: f(), evz: f(), eax: f(), eay: f(), eaz: f(), v2: f(),
   };
 }
 
 /**
  * Fill the Earth-fixed part of `s` from its TEME columns (entries 0 … n−1 at
- * times t0S + i·stepS). Gravity: two-body plus the J2 zonal term, the dominant
+ * times originS + (k0 + i)·stepS). Gravity: two-body plus the J2 zonal term, the dominant
  * perturbation (about 1e-3 of the central term); drag and higher harmonics
  * are left out (each below ~1e-5 relative), which is ample for the Doppler rate.
  */
@@ -55,7 +56,7 @@ export function satelliteEarthFixed(s: SatelliteColumns): void {
   const { rx, ry, rz, vx, vy, vz } = s.teme;
   const w = EARTH_ROTATION_RAD_S;
   for (let i = 0; i < s.n; i++) {
-    const g = gmstRad(s.t0S + i * s.stepS);
+    const g = gmstRad(s.originS + (s.k0 + i) * s.stepS);
     const c = Math.cos(g); const sn = Math.sin(g);
     s.cosG[i] = c; s.sinG[i] = sn;
     const x = rx[i]; const y = ry[i]; const z = rz[i];

@@ -7,7 +7,7 @@
  * pass search evaluates. Nothing allocates per call.
  */
 import { InputError } from '../errors.js';
-import { gmstRad } from '../orbit/frames.js';
+import { EARTH_ROTATION_RAD_S, gmstRad } from '../orbit/frames.js';
 import {
   createSatelliteColumns, createStationColumns, satelliteEarthFixed, stationLook, type StationFrame,
 } from './columns.js';
@@ -23,8 +23,8 @@ export interface StateSource {
   stateTeme(timeS: number, posOut: Float64Array, velOut: Float64Array): void;
 }
 
-/** Azimuth, geometric elevation (deg) and range (km): what the pass search needs. */
-export interface LookAngles { azimuthDeg: number; elevationDeg: number; rangeKm: number }
+/** Azimuth, geometric elevation (deg), range (km) and range rate (km/s): what the pass search needs. */
+export interface LookAngles { azimuthDeg: number; elevationDeg: number; rangeKm: number; rangeRateKmS: number }
 
 export interface StationGeometry {
   readonly station: Station;
@@ -36,7 +36,7 @@ export interface StationGeometry {
   sample(orbit: StateSource, timeS: number, out: GeometrySample): GeometrySample;
   /** Elevation minus mask at `timeS` (deg; ≥ 0 means visible), for the event search. */
   elevationMinusMask(orbit: StateSource, timeS: number): number;
-  /** Azimuth, elevation and range at `timeS` (no rates, no refraction), into `out`. */
+  /** Azimuth, elevation, range and range rate at `timeS` (no refraction), into `out`. */
   look(orbit: StateSource, timeS: number, out: LookAngles): LookAngles;
 }
 
@@ -73,8 +73,9 @@ export function createStationGeometry(input: Station): StationGeometry {
   const sat1 = createSatelliteColumns(1);
   const stn1 = createStationColumns(1);
 
-  /** East, north, up (km) of the satellite at t into enu; returns GMST. */
+  /** East, north, up (km) of the satellite at t into enu, and the ECEF offset from the station into d (km) with the GMST cosine and sine. */
   const enu = new Float64Array(3);
+  const d = new Float64Array(5);
   function topocentric(orbit: StateSource, t: number): void {
     orbit.stateTeme(t, rT, vT);
     const g = gmstRad(t);
@@ -82,6 +83,7 @@ export function createStationGeometry(input: Station): StationGeometry {
     const dx = c * rT[0] + s * rT[1] - ecef[0];
     const dy = -s * rT[0] + c * rT[1] - ecef[1];
     const dz = rT[2] - ecef[2];
+    d[0] = dx; d[1] = dy; d[2] = dz; d[3] = c; d[4] = s;
     enu[0] = -sl * dx + cl * dy;
     enu[1] = -sp * cl * dx - sp * sl * dy + cp * dz;
     enu[2] = cp * cl * dx + cp * sl * dy + sp * dz;
@@ -103,7 +105,14 @@ export function createStationGeometry(input: Station): StationGeometry {
     out.elevationDeg = Math.atan2(u, Math.hypot(e, n)) / DEG;
     const az = Math.atan2(e, n) / DEG;
     out.azimuthDeg = az < 0 ? az + 360 : az;
-    out.rangeKm = Math.sqrt(e * e + n * n + u * u);
+    const rho = Math.sqrt(e * e + n * n + u * u);
+    out.rangeKm = rho;
+    // Range rate from the true Earth-fixed velocity R·v_T − ω⊕ × r_E (as geometry/columns.ts).
+    const c = d[3], s = d[4];
+    const xE = c * rT[0] + s * rT[1], yE = -s * rT[0] + c * rT[1];
+    const vx = c * vT[0] + s * vT[1] + EARTH_ROTATION_RAD_S * yE;
+    const vy = -s * vT[0] + c * vT[1] - EARTH_ROTATION_RAD_S * xE;
+    out.rangeRateKmS = (d[0] * vx + d[1] * vy + d[2] * vT[2]) / rho;
     return out;
   }
 
@@ -112,7 +121,7 @@ export function createStationGeometry(input: Station): StationGeometry {
     const st = sat1.teme;
     st.rx[0] = rT[0]; st.ry[0] = rT[1]; st.rz[0] = rT[2];
     st.vx[0] = vT[0]; st.vy[0] = vT[1]; st.vz[0] = vT[2];
-    sat1.n = 1; sat1.t0S = t; sat1.stepS = 0;
+    sat1.n = 1; sat1.originS = t; sat1.k0 = 0; sat1.stepS = 0;
     satelliteEarthFixed(sat1);
     stationLook(frame, sat1, 0, 1, stn1);
     out.satPositionTemeKm.set(rT); out.satVelocityTemeKmS.set(vT);

@@ -6,7 +6,8 @@
  * exactly; rate — time binned by C/N0 (0.01 dB), so the closing time at any
  * fixed bit rate follows without re-running the budget.
  */
-import { runPipeline, type PipelineResult } from '../analysis/pipeline.js';
+import { runPipeline } from '../sweep/pipeline.js';
+import type { PipelineResult } from '../sweep/types.js';
 import { bestRate, rateTrade } from '../analysis/rateHistogram.js';
 import { bitsToMegabytes } from '../analysis/units.js';
 import type { MaskFinding, MaskTradePoint, RateTradePoint } from '../analysis/types.js';

@@ -2,4 +2,3 @@ export { runScenario, formatRunSummary, defaultOutDir, type RunOptions, type Run
 export { maskScenario, rateScenario, formatMaskResult, formatRateResult, type MaskResult, type RateResult } from './finders.js';
 export { rebuildReport, loadReportInput } from './report.js';
 export { stepColumns, PASS_COLUMNS, DAILY_COLUMNS, CAUTIONS, MODELS_USED } from './outputs.js';
-export { runPipeline, type PipelineOptions, type PipelineResult, type StepEvent } from '../analysis/pipeline.js';

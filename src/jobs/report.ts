@@ -13,7 +13,7 @@ import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../output/atomic.js';
 import { renderReport, REPORT_MAX_PASS_SECTIONS } from '../output/report/index.js';
 import type { LinkEnvelope, PassSeries, ReportInput } from '../output/report/types.js';
-import { envelopeBin, ENVELOPE_BINS, type StationLinkEnvelope } from '../analysis/pipeline.js';
+import { envelopeAdd, ENVELOPE_BINS, type StationLinkEnvelope } from '../sweep/types.js';
 import { linkEnvelopes } from './run.js';
 
 const SERIES_MAX_POINTS = 120;
@@ -101,19 +101,16 @@ async function fromSteps(file: string, passes: PassLinkSummary[], weather: strin
       envs = weather.map((w) => ({
         station: r.station, link: r.link, weather: w,
         minDB: new Float64Array(ENVELOPE_BINS).fill(Infinity), maxDB: new Float64Array(ENVELOPE_BINS).fill(-Infinity),
+        keyholeMinDB: new Float64Array(ENVELOPE_BINS).fill(Infinity),
       }));
       envOf.set(linkKey, envs);
       envelopes.push(...envs);
     }
-    const bin = envelopeBin(el);
-    if (bin >= 0) {
-      weather.forEach((w, i) => {
-        const m = num(r[`margin_db_${w}`]);
-        if (!Number.isFinite(m)) return;
-        if (m < envs![i].minDB[bin]) envs![i].minDB[bin] = m;
-        if (m > envs![i].maxDB[bin]) envs![i].maxDB[bin] = m;
-      });
-    }
+    const limited = r.mount_limited === 'true';
+    weather.forEach((w, i) => {
+      const e = envs![i];
+      envelopeAdd(e.minDB, e.maxDB, e.keyholeMinDB, el, num(r[`margin_db_${w}`]), limited && r[`usable_${w}`] !== 'true');
+    });
     const key = `${r.pass_id}|${r.link}`;
     const step = every.get(key);
     if (step === undefined) continue;

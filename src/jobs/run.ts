@@ -8,7 +8,7 @@
 import { resolve, join } from 'node:path';
 import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
 import { findMask, maskTrade } from '../analysis/maskHistogram.js';
-import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope } from '../analysis/pipeline.js';
+import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope } from '../sweep/types.js';
 import { bitsToMegabytes } from '../analysis/units.js';
 import type { MaskFinding, MaskTradePoint, RunSummary } from '../analysis/types.js';
 import { epochWarning } from '../elements/index.js';
@@ -21,7 +21,7 @@ import type { ResolvedScenario } from '../scenario/types.js';
 import {
   DAILY_COLUMNS, PASS_COLUMNS, dailyRows, passJson, passRows, runSummary,
 } from './outputs.js';
-import { runPipelineParallel } from './workerRun.js';
+import { runPipelineParallel } from '../sweep/parallel.js';
 import { createProgress } from './progress.js';
 
 export interface RunOptions {
@@ -118,7 +118,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
   const out = new AtomicOutputDir(outDir);
   const progress = createProgress({ quiet: opts.quiet === true, label: scenario.name });
   try {
-    // steps.csv rows are formatted by workerStepsCsv.ts (byte-identical to stepRow + csv-stringify, much faster);
+    // steps.csv rows are formatted by output/stepsCsv.ts (byte-identical to stepRow + csv-stringify, much faster);
     // with workers > 1 the sweep runs on worker threads, outputs identical to the in-process run.
     const pipeline = await runPipelineParallel({
       scenario,

@@ -1,18 +1,30 @@
 /**
- * TEME → Earth-fixed rotation by Greenwich mean sidereal time (IAU-82 GMST
- * through satellite.js `gstime`, Vallado 2004 eq. 3-45), polar motion and
- * UT1−UTC neglected (UTC is used for UT1, an error below 0.9 s of rotation,
- * i.e. under about 0.4 km at the equator; common practice for SGP4 users).
+ * TEME → Earth-fixed rotation by Greenwich mean sidereal time (IAU-82 GMST,
+ * Vallado 2004 eq. 3-45, the formula of satellite.js `gstime`), polar motion
+ * and UT1−UTC neglected (UTC is used for UT1, an error below 0.9 s of
+ * rotation, i.e. under about 0.4 km at the equator; common practice for SGP4
+ * users).
  */
-import { gstime } from 'satellite.js';
-import { julianDateFromUnix } from './time.js';
+
+/** 2000-01-01T12:00:00 (JD 2451545.0, the epoch of eq. 3-45) as Unix seconds, UTC for UT1 as above. */
+const J2000_UNIX_S = 946_728_000;
+const TWO_PI = 2 * Math.PI;
+const DEG = Math.PI / 180;
 
 /** Earth rotation rate used for the Earth-fixed velocity (rad/s), PHYSICS.md §11. */
 export const EARTH_ROTATION_RAD_S = 7.292115e-5;
 
-/** GMST (rad) at Unix time `t`, from a floating-point Julian date (no Date objects). */
+/**
+ * GMST (rad, 0–2π) at Unix time `t`: eq. 3-45 with T_UT1 counted from
+ * seconds since J2000 rather than from a Julian date, whose float64
+ * resolution today (~40 µs) would step the Earth's rotation by ~2 cm at the
+ * equator (agrees with satellite.js `gstime` to that resolution).
+ */
 export function gmstRad(t: number): number {
-  return gstime(julianDateFromUnix(t));
+  const tut1 = (t - J2000_UNIX_S) / (86_400 * 36_525);
+  let s = -6.2e-6 * tut1 * tut1 * tut1 + 0.093104 * tut1 * tut1 + (876_600 * 3600 + 8_640_184.812866) * tut1 + 67_310.54841; // s
+  s = ((s * DEG) / 240) % TWO_PI; // 360°/86 400 s = 1/240 ° per s
+  return s < 0 ? s + TWO_PI : s;
 }
 
 /**

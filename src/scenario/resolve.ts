@@ -205,6 +205,11 @@ export function resolveScenarioInput(
   const steps = input.output?.steps ?? false;
   if (input.output?.steps === undefined) ctx.recordDefault({ path: 'output.steps', value: 'false', reason: 'per-step series not written unless asked' });
 
+  const exactOrbit = input.exact_orbit ?? false;
+  if (input.exact_orbit === undefined) {
+    ctx.recordDefault({ path: 'exact_orbit', value: 'false', reason: 'SGP4 at nodes about a minute apart, 8-point Lagrange interpolation between them (position within 1 m of SGP4)' });
+  }
+
   return {
     scenario: {
       name: input.name,
@@ -219,6 +224,7 @@ export function resolveScenarioInput(
       maskFraction,
       rateCandidatesBps,
       output: { dir, steps },
+      exactOrbit,
       defaultsApplied,
       warnings,
     },

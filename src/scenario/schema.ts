@@ -278,6 +278,7 @@ export const scenarioSchema = obj({
   mask_finder: maskFinderSchema.optional(),
   rate_finder: rateFinderSchema.optional(),
   output: outputSchema.optional(),
+  exact_orbit: z.boolean().optional().meta(d('SGP4 at every instant instead of interpolating between SGP4 nodes about a minute apart (slower; a check of the interpolation); default false')),
 }).meta({
   title: 'passbudget scenario',
   description: 'Satellites, stations, links, window and weather for a pass-by-pass link budget run (YAML or JSON)',

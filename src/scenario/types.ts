@@ -40,6 +40,8 @@ export interface ResolvedScenario {
   /** Rate finder: bit rates to try (b/s) per fixed-rate link name. */
   rateCandidatesBps: number[];
   output: { dir: string | null; steps: boolean };
+  /** SGP4 at every instant instead of interpolating between nodes (orbit/interpolated.ts). */
+  exactOrbit: boolean;
   defaultsApplied: AppliedDefault[];
   warnings: string[];
 }

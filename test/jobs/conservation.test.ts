@@ -14,7 +14,7 @@
 import path from 'node:path';
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runPipeline } from '../../src/analysis/pipeline.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
 import type { DailyRow, RunSummary } from '../../src/analysis/types.js';
 import { runScenario } from '../../src/jobs/run.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';

@@ -9,7 +9,7 @@
  * and on a one-day cut of the demo scenario.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runPipeline } from '../../src/analysis/pipeline.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
 import type { DailyRow } from '../../src/analysis/types.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
 import { PAIR, removeTempDirs, tempDir, writeDemoCopy } from './helpers.js';

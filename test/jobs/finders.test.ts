@@ -18,7 +18,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runPipeline } from '../../src/analysis/pipeline.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
 import type { DailyRow, MaskFinding } from '../../src/analysis/types.js';
 import { MASK_COLUMNS, RATE_COLUMNS, maskScenario, rateScenario } from '../../src/jobs/finders.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';

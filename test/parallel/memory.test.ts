@@ -10,7 +10,8 @@
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { describe, expect, it } from 'vitest';
-import { runPipeline, type PipelineResult } from '../../src/analysis/pipeline.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
+import type { PipelineResult } from '../../src/sweep/types.js';
 import { lightScenario } from './scenario.js';
 
 setFlagsFromString('--expose-gc');

@@ -2,18 +2,18 @@
  * Parallel runs write the same bytes as serial ones: the demo over 1.5 days
  * (a window ending mid-day, so a day is partial), all outputs, steps.csv
  * included, with 1 (in-process), 2 and 3 worker threads. The workers run the
- * built script (dist/jobs/workerThread.js; `npm run build` first, as CI does).
+ * built script (dist/sweep/worker.js; `npm run build` first, as CI does).
  */
 import { existsSync, readFileSync, readdirSync, rmSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runScenario } from '../../src/jobs/run.js';
-import { checkWorkers, runPipelineParallel } from '../../src/jobs/workerRun.js';
+import { checkWorkers, runPipelineParallel } from '../../src/sweep/parallel.js';
 import { InputError } from '../../src/errors.js';
 import { smallScenario } from './scenario.js';
 
-const WORKER = path.resolve(process.cwd(), 'dist/jobs/workerThread.js');
+const WORKER = path.resolve(process.cwd(), 'dist/sweep/worker.js');
 const tmp = mkdtempSync(path.join(tmpdir(), 'passbudget-parallel-'));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 

@@ -1,5 +1,5 @@
 /**
- * Report data bounded by design (src/analysis/pipeline.ts): with
+ * Report data bounded by design (src/sweep/chunk.ts): with
  * collectSeries, series are kept for the first `seriesMaxSections` pass-link
  * sections in the report's time order only, and the margin envelope covers
  * every step. Reference for the envelope: d3-array `bin` (marginEnvelope of
@@ -9,14 +9,17 @@
  * last bit as the engine's own.
  */
 import { describe, expect, it } from 'vitest';
-import { runPipeline, satelliteLayout, createSweeper, ENVELOPE_BINS } from '../../src/analysis/pipeline.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
+import { satelliteLayout } from '../../src/sweep/layout.js';
+import { createSweeper } from '../../src/sweep/chunk.js';
+import { ENVELOPE_BINS } from '../../src/sweep/types.js';
 import { createLinkEngine, createStepBudget } from '../../src/budget/engine.js';
 import { createStationGeometry } from '../../src/geometry/station.js';
 import { createGeometrySample } from '../../src/geometry/types.js';
 import { createPropagator } from '../../src/orbit/propagator.js';
 import { marginEnvelope } from '../../src/output/report/envelope.js';
 import { linkEnvelopes } from '../../src/jobs/run.js';
-import { runPipelineParallel } from '../../src/jobs/workerRun.js';
+import { runPipelineParallel } from '../../src/sweep/parallel.js';
 import { smallScenario } from './scenario.js';
 
 describe('report series cap and envelope', () => {

@@ -1,5 +1,5 @@
 /**
- * The fast steps.csv formatter (src/jobs/workerStepsCsv.ts) against the
+ * The fast steps.csv formatter (src/output/stepsCsv.ts) against the
  * general path it replaces, as the reference: `fmt` (Number.prototype.toFixed,
  * ECMA-262 §21.1.3.3), `formatIsoUtc` (Date.prototype.toISOString) and
  * csv-stringify 6.9 with the options CsvStreamWriter uses (RFC 4180 quoting).
@@ -7,10 +7,14 @@
  * of writing the same bytes, nothing looser.
  */
 import { describe, expect, it } from 'vitest';
-import { runPipeline, type StepEvent } from '../../src/analysis/pipeline.js';
-import { copyStepBudget } from '../../src/budget/columns.js';
+import { runPipeline } from '../../src/sweep/pipeline.js';
+import type { StepEvent } from '../../src/sweep/types.js';
+import type { StepPart } from '../../src/sweep/window.js';
+import { createStepBudget } from '../../src/budget/engine.js';
+import { createLinkColumns, readStep } from '../../src/budget/linkColumns.js';
+import { createStationColumns } from '../../src/geometry/columns.js';
 import { stepColumns, stepRow } from '../../src/jobs/outputs.js';
-import { createStepsCsvFormatter, csvField, fixedDecimal, isoUtcMillis, putFixed, putIso } from '../../src/jobs/workerStepsCsv.js';
+import { createStepsCsvFormatter, csvField, fixedDecimal, isoUtcMillis, putFixed, putIso } from '../../src/output/stepsCsv.js';
 import { formatIsoUtc } from '../../src/orbit/time.js';
 import { csvText, fmt, type CsvCell } from '../../src/output/csv.js';
 import { smallScenario } from './scenario.js';
@@ -83,35 +87,70 @@ describe('csvField quotes as csv-stringify does', () => {
   });
 });
 
+/** A copy of entry i of a window part as a one-entry part (the sweep reuses its columns). */
+function copyPart(p: StepPart, i: number): StepPart {
+  const stn = createStationColumns(1);
+  for (const k of Object.keys(stn) as (keyof typeof stn)[]) {
+    const v = stn[k];
+    if (v instanceof Float64Array) v[0] = (p.stn[k] as Float64Array)[i];
+  }
+  const cols = createLinkColumns(1, p.cols.cases.length);
+  cols.n = 1; cols.polarisationLossDB = p.cols.polarisationLossDB; cols.otherLossesDB = p.cols.otherLossesDB;
+  const copy = (dst: Record<string, unknown>, src: Record<string, unknown>) => {
+    for (const k of Object.keys(dst)) {
+      const d = dst[k];
+      if (ArrayBuffer.isView(d)) (d as unknown as number[])[0] = (src[k] as unknown as number[])[i];
+    }
+  };
+  copy(cols as unknown as Record<string, unknown>, p.cols as unknown as Record<string, unknown>);
+  cols.cases.forEach((c, j) => copy(c as unknown as Record<string, unknown>, p.cols.cases[j] as unknown as Record<string, unknown>));
+  return { ...p, k0: 0, n: 1, stn, cols };
+}
+
 describe('steps.csv rows', () => {
   it('equal stepRow + csv-stringify on the first 4000 steps of a real run, and with hostile names', async () => {
     const scenario = smallScenario(1);
     const fmtr = createStepsCsvFormatter(scenario.weatherCases);
     const cols = stepColumns(scenario.weatherCases);
-    const events: StepEvent[] = [];
+    const rows: { part: StepPart; timeS: number }[] = [];
     await runPipeline({
       scenario,
-      onStep: (e) => { if (events.length < 4000) events.push({ ...e, step: copyStepBudget(e.step) }); },
+      onWindow: (w) => {
+        for (let k = w.k0; k < w.k1; k++) {
+          for (const p of w.parts) {
+            const i = k - p.k0;
+            if (i >= 0 && i < p.n && rows.length < 4000) rows.push({ part: copyPart(p, i), timeS: w.startS + k * w.stepS });
+          }
+        }
+      },
     });
-    expect(events.length).toBe(4000);
+    expect(rows.length).toBe(4000);
     // Names the demo does not have: a comma, a quote, a newline, non-ASCII; a mode with a comma.
-    const hostile = events.slice(0, 50).map((e, i) => {
-      const step = copyStepBudget(e.step);
-      step.cases[0].mode = i % 2 ? 'QPSK 1/2, "short"' : step.cases[0].mode;
-      return { ...e, passId: 'SAT,1/"Hill"\nTop/3', station: 'Hügel "Nord", Süd', satellite: 'ÄSAT-1', step };
-    });
-    const all = [...events, ...hostile];
-    const reference = await csvText(cols, all.map((e) => stepRow(e, []) as CsvCell[]));
-    const ours = fmtr.header + all.map((e) => fmtr.row(e)).join('');
+    const hostile = rows.slice(0, 50).map((r, i) => ({
+      timeS: r.timeS,
+      part: {
+        ...r.part, passId: 'SAT,1/"Hill"\nTop/3', station: 'Hügel "Nord", Süd', satellite: 'ÄSAT-1',
+        modeNames: i % 2 ? r.part.modeNames.map(() => 'QPSK 1/2, "short"') : r.part.modeNames,
+      },
+    }));
+    const all = [...rows, ...hostile];
+    // The general path: each row read back as a StepBudget record, then stepRow + csv-stringify.
+    const events: StepEvent[] = all.map(({ part: p, timeS }) => ({
+      passId: p.passId, satellite: p.satellite, station: p.station, link: p.link, timeS,
+      step: readStep(p.stn, p.cols, 0, timeS, p.modeNames, createStepBudget(scenario.weatherCases)),
+    }));
+    expect(events.some((e) => e.step.cases.some((c) => c.mode !== ''))).toBe(true);
+    const reference = await csvText(cols, events.map((e) => stepRow(e, []) as CsvCell[]));
+    const ours = fmtr.header + all.map((r) => fmtr.row(r.part, 0, r.timeS)).join('');
     expect(ours.length).toBe(reference.length);
     expect(ours).toBe(reference);
     // The byte path (rowInto, what the run writes): the same UTF-8 bytes, each row within its bound.
     const buf = Buffer.alloc(Buffer.byteLength(reference) + 1024);
     let off = buf.write(fmtr.header, 0, 'utf8');
-    for (const e of all) {
+    for (const r of all) {
       const before = off;
-      off = fmtr.rowInto(e, buf, off);
-      expect(off - before).toBeLessThanOrEqual(fmtr.rowBytesBound(e));
+      off = fmtr.rowInto(r.part, 0, r.timeS, buf, off);
+      expect(off - before).toBeLessThanOrEqual(fmtr.rowBytesBound(r.part));
     }
     expect(off).toBe(Buffer.byteLength(reference));
     expect(buf.subarray(0, off).equals(Buffer.from(reference, 'utf8'))).toBe(true);

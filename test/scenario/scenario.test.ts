@@ -90,6 +90,7 @@ describe('demo scenario orbilux-demo', () => {
   it('lists every default it applied, with (from memory) where the value is', () => {
     const paths = s.defaultsApplied.map((d) => d.path).sort();
     expect(paths).toEqual([
+      'exact_orbit',
       'network.policy',
       'output.dir',
       'satellites[0].links[0].modcod.required_eb_n0_db',

@@ -1,22 +1,24 @@
 /**
- * Worker thread of a parallel run (see workerRun.ts). First it finds the
- * passes of the stations it is sent (the plan's expensive part); it receives
- * the engines' elevation tables built once by the main thread (so it builds
- * none); then it sweeps the chunks it is sent with the same code as the
- * in-process run (analysis/pipeline.ts), writes each chunk's steps.csv rows
- * to its own file and posts the chunk's accumulator state back (typed arrays
+ * Worker thread of a parallel run (see parallel.ts). It searches the pass
+ * slabs it is sent (all stations of a satellite on one orbit), receives the
+ * engines' elevation tables built once by the main thread (so it builds
+ * none), then sweeps the chunks it is sent with the same code as the
+ * in-process run (chunk.ts), writes each chunk's steps.csv rows to a file of
+ * its own and posts the chunk's accumulator state back (typed arrays
  * transferred, not copied).
  */
 import { closeSync, openSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import { parentPort, workerData } from 'node:worker_threads';
-import {
-  createSweeper, findStationPasses, satelliteLayout, type ChunkPartial, type PlannedPass, type Sweeper,
-} from '../analysis/pipeline.js';
 import type { ElevationTable } from '../budget/atmosphere.js';
-import type { Pass } from '../passes/types.js';
+import { createStepsCsvFormatter, writeWindowRows, type RowTarget } from '../output/stepsCsv.js';
+import { createOrbit } from '../passes/find.js';
+import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
-import { createStepsCsvFormatter } from './workerStepsCsv.js';
+import { createSweeper, type Sweeper } from './chunk.js';
+import { satelliteLayout } from './layout.js';
+import { createPassSearcher, type PassSearcher, type PlannedPass, type SlabEvents } from './plan.js';
+import type { ChunkPartial } from './types.js';
 
 export interface WorkerInit {
   scenario: ResolvedScenario;
@@ -28,12 +30,12 @@ export interface WorkerInit {
 }
 
 export type ToWorker =
-  | { type: 'passes'; task: number; satIndex: number; station: number }
+  | { type: 'slab'; task: number; satIndex: number; slab: number }
   /** Per satellite index: its engines' tables (layout station × link order); sent before any chunk. */
   | { type: 'tables'; tables: [number, ElevationTable[]][] }
   | { type: 'chunk'; task: number; satIndex: number; chunk: number; items: PlannedPass[] };
 export type FromWorker =
-  | { type: 'passes'; task: number; passes: Pass[] }
+  | { type: 'slab'; task: number; events: SlabEvents; sgp4Calls: number }
   | { type: 'progress'; doneS: number }
   | { type: 'done'; task: number; partial: ChunkPartial; stepsFile: string | null }
   | { type: 'error'; name: string; message: string; stack?: string };
@@ -42,15 +44,27 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   const out = new Set<ArrayBuffer>();
   const add = (a: Float64Array) => { out.add(a.buffer as ArrayBuffer); };
   for (const d of p.daily) { add(d.passes); add(d.usablePasses); add(d.usableS); add(d.fixedBits); add(d.adaptiveBits); add(d.runs); }
-  for (const m of p.mask) { add(m.timeS); add(m.usableS); add(m.volumeBits); }
+  for (const m of p.mask) { add(m.timeS); add(m.usableS); add(m.volumeBits); add(m.keyholeS); }
   for (const r of p.rate) if (r) add(r.timeS);
   for (const e of p.envelope) add(e);
   return [...out];
 }
 
+/** steps rows of one chunk into a file, through a 1 MB buffer. */
+function fileTarget(fd: number): RowTarget {
+  const t = {
+    buffer: new Uint8Array(1 << 20),
+    filled: 0,
+    capacity: 1 << 20,
+    flush() { if (t.filled > 0) writeSync(fd, t.buffer, 0, t.filled); t.filled = 0; },
+    writeRaw(bytes: Uint8Array) { t.flush(); writeSync(fd, bytes); },
+  };
+  return t;
+}
+
 function main(): void {
   const port = parentPort;
-  if (!port) throw new Error('workerThread.ts runs as a worker thread only');
+  if (!port) throw new Error('worker.ts runs as a worker thread only');
   const init = workerData as WorkerInit;
   const { scenario } = init;
   const post = (m: FromWorker, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);
@@ -59,11 +73,24 @@ function main(): void {
     post({ type: 'error', name: e.name, message: e.message, stack: e.stack });
   };
   try {
+    const orbits = new Map<number, OrbitSource>();
+    const searchers = new Map<number, PassSearcher>();
     const sweepers = new Map<number, Sweeper>();
     const tables = new Map<number, ElevationTable[]>();
+    const layoutOf = (satIndex: number) => satelliteLayout(scenario, satIndex, init.maskFloorDeg);
+    const orbitFor = (satIndex: number) => {
+      let o = orbits.get(satIndex);
+      if (!o) { o = createOrbit(scenario.satellites[satIndex].elements, scenario.window, scenario.exactOrbit); orbits.set(satIndex, o); }
+      return o;
+    };
+    const searcherFor = (satIndex: number) => {
+      let s = searchers.get(satIndex);
+      if (!s) { s = createPassSearcher(scenario, layoutOf(satIndex), orbitFor(satIndex)); searchers.set(satIndex, s); }
+      return s;
+    };
     const sweeperFor = (satIndex: number) => {
       let s = sweepers.get(satIndex);
-      if (!s) { s = createSweeper(scenario, satelliteLayout(scenario, satIndex, init.maskFloorDeg), tables.get(satIndex)); sweepers.set(satIndex, s); }
+      if (!s) { s = createSweeper(scenario, layoutOf(satIndex), tables.get(satIndex), orbitFor(satIndex)); sweepers.set(satIndex, s); }
       return s;
     };
     const fmt = init.stepsDir ? createStepsCsvFormatter(scenario.weatherCases) : null;
@@ -73,10 +100,12 @@ function main(): void {
         for (const [satIndex, t] of msg.tables) tables.set(satIndex, t);
         return;
       }
-      if (msg.type === 'passes') {
+      if (msg.type === 'slab') {
         try {
-          const passes = findStationPasses(scenario, satelliteLayout(scenario, msg.satIndex, init.maskFloorDeg), msg.station);
-          post({ type: 'passes', task: msg.task, passes });
+          const orbit = orbitFor(msg.satIndex);
+          const before = orbit.sgp4Calls;
+          const events = searcherFor(msg.satIndex).searchSlab(msg.slab);
+          post({ type: 'slab', task: msg.task, events, sgp4Calls: orbit.sgp4Calls - before });
         } catch (err) {
           fail(err);
         }
@@ -85,34 +114,25 @@ function main(): void {
       void (async () => {
         try {
           let fd = -1;
-          const buf = Buffer.allocUnsafe(1 << 20);
-          let off = 0;
           let stepsFile: string | null = null;
           if (fmt && init.stepsDir) {
             stepsFile = join(init.stepsDir, `s${msg.satIndex}-c${msg.chunk}.csv`);
             fd = openSync(stepsFile, 'w');
           }
+          const target = fd >= 0 ? fileTarget(fd) : null;
           let doneS = 0;
           let lastPost = 0;
           const partial = await sweeperFor(msg.satIndex).sweepChunk(msg.items, msg.chunk, {
             collectSeries: init.collectSeries,
             seriesMaxPoints: init.seriesMaxPoints,
-            onStep: fmt ? (e) => {
-              const need = fmt.rowBytesBound(e);
-              if (off + need > buf.length) { writeSync(fd, buf, 0, off); off = 0; }
-              if (need > buf.length) { writeSync(fd, Buffer.from(fmt.row(e), 'utf8')); return; }
-              off = fmt.rowInto(e, buf, off);
-            } : undefined,
+            onWindow: fmt && target ? (w) => writeWindowRows(fmt, w, target) : undefined,
             onPassDone: (d) => {
               doneS += d;
               const now = Date.now();
               if (now - lastPost > 100) { post({ type: 'progress', doneS }); doneS = 0; lastPost = now; }
             },
           });
-          if (fd >= 0) {
-            if (off > 0) writeSync(fd, buf, 0, off);
-            closeSync(fd);
-          }
+          if (target) { target.flush(); closeSync(fd); }
           if (doneS > 0) post({ type: 'progress', doneS });
           post({ type: 'done', task: msg.task, partial, stepsFile }, transferables(partial));
         } catch (err) {

@@ -1,15 +1,15 @@
 /**
- * The pipeline on worker threads. The workers find every satellite's passes
- * (a task per satellite and station) while the main thread builds the link
+ * The sweep on worker threads. The workers search the passes (a task per
+ * satellite and slab of the window) while the main thread builds the link
  * engines once and sends their elevation tables to every worker (structured
- * clone of Float64Arrays: the workers build none). The main thread then cuts
- * each sweep into the pipeline's fixed chunks (cuts where no station sees the
- * satellite: no pass or network contact crosses one); the workers sweep
- * chunks as they become free, each writing its steps.csv rows
- * to a file of its own; the main thread merges the chunks' accumulators and
- * appends their rows to steps.csv strictly in chunk order, which is the order
- * of the in-process sweep. So every output is byte-identical to the
- * in-process run (`workers` ≤ 1), which merges the same chunks the same way.
+ * clone of Float64Arrays: the workers build none). With every slab in, the
+ * main thread plans each satellite's chunks (the same plan as the in-process
+ * run); the workers sweep chunks as they become free, each writing its
+ * steps.csv rows to a file of its own; the main thread merges the chunks'
+ * accumulators and appends their rows to steps.csv strictly in chunk order,
+ * which is the order of the in-process sweep. So every output is
+ * byte-identical to the in-process run (`workers` ≤ 1), which merges the same
+ * chunks the same way.
  */
 import { createReadStream, existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -17,18 +17,18 @@ import { join } from 'node:path';
 import type { Writable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import {
-  createSatelliteMerge, createSweeper, emptyPipelineResult, finishPipelineResult, planFromPasses, runPipeline,
-  satelliteLayout, selectSeries, SERIES_MAX_SECTIONS, type ChunkPartial, type PipelineResult, type PlannedPass,
-  type SatelliteLayout, type SatelliteMerge,
-} from '../analysis/pipeline.js';
 import type { ElevationTable } from '../budget/atmosphere.js';
-import type { Pass } from '../passes/types.js';
 import type { DailyRow } from '../analysis/types.js';
 import { InputError } from '../errors.js';
+import { ChunkedTextWriter, createStepsCsvFormatter, stepsCsvSink } from '../output/stepsCsv.js';
 import type { ResolvedScenario } from '../scenario/types.js';
-import type { FromWorker, ToWorker, WorkerInit } from './workerThread.js';
-import { ChunkedTextWriter, createStepsCsvFormatter } from './workerStepsCsv.js';
+import { createSweeper } from './chunk.js';
+import { scenarioLayouts, type SatelliteLayout } from './layout.js';
+import { createSatelliteMerge, emptyPipelineResult, finishPipelineResult, type SatelliteMerge } from './merge.js';
+import { planFromSlabs, selectSeries, SERIES_MAX_SECTIONS, slabCount, type PlannedPass, type SlabEvents } from './plan.js';
+import { runPipeline } from './pipeline.js';
+import type { ChunkPartial, PipelineResult } from './types.js';
+import type { FromWorker, ToWorker, WorkerInit } from './worker.js';
 
 export interface ParallelPipelineOptions {
   scenario: ResolvedScenario;
@@ -38,12 +38,12 @@ export interface ParallelPipelineOptions {
   stepsOut?: Writable | null;
   collectSeries?: boolean;
   seriesMaxPoints?: number;
-  /** See PipelineOptions.seriesMaxSections. */
+  /** With collectSeries: series only for the first this many pass-link sections in time order (default SERIES_MAX_SECTIONS). */
   seriesMaxSections?: number;
   maskFloorDeg?: number;
   /** Seconds of pass time done and the total (all satellites). */
   onProgress?: (doneS: number, totalS: number) => void;
-  /** The worker script (default: workerThread.js beside this file, else dist/jobs/). */
+  /** The worker script (default: worker.js beside this file, else dist/sweep/). */
   workerScript?: string;
 }
 
@@ -57,10 +57,10 @@ export function checkWorkers(value: unknown, where = '--workers'): number {
 }
 
 function defaultWorkerScript(): string {
-  const here = fileURLToPath(new URL('./workerThread.js', import.meta.url));
+  const here = fileURLToPath(new URL('./worker.js', import.meta.url));
   if (existsSync(here)) return here;
   // Running from the TypeScript sources (tests): the built worker.
-  const built = fileURLToPath(new URL('../../dist/jobs/workerThread.js', import.meta.url));
+  const built = fileURLToPath(new URL('../../dist/sweep/worker.js', import.meta.url));
   if (existsSync(built)) return built;
   throw new Error(`parallel run: no worker script at ${here} or ${built} (run npm run build)`);
 }
@@ -74,16 +74,13 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
 
   if (workers <= 1) {
     const result = await runPipeline({
-      scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections, maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress,
-      onStep: writer && fmt ? (e) => writer.writeRow(fmt, e) : undefined,
+      scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections,
+      maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress, onWindow: writer && fmt ? stepsCsvSink(writer, fmt) : undefined,
     });
     if (writer) await writer.close();
     return result;
   }
 
-  // The workers find the passes (one task per satellite and station) while this
-  // thread builds the engines once and sends their elevation tables to every
-  // worker; then this thread plans the chunks and the workers sweep them.
   const stepsDir = writer ? mkdtempSync(join(tmpdir(), 'passbudget-steps-')) : null;
   const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir };
   const script = o.workerScript ?? defaultWorkerScript();
@@ -91,13 +88,10 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   try {
     for (let w = 0; w < workers; w++) pool.push(new Worker(script, { workerData: init }));
     const result = emptyPipelineResult();
-    const layouts: SatelliteLayout[] = [];
-    for (let satIndex = 0; satIndex < scenario.satellites.length; satIndex++) {
-      const layout = satelliteLayout(scenario, satIndex, o.maskFloorDeg);
-      if (layout.stations.length > 0) layouts.push(layout);
-    }
-    const passTasks = layouts.flatMap((layout, li) => layout.stations.map((_, station) => ({ li, satIndex: layout.satIndex, station })));
-    const passesBy: Pass[][][] = layouts.map((l) => l.stations.map(() => []));
+    const layouts: SatelliteLayout[] = scenarioLayouts(scenario, o.maskFloorDeg);
+    const nSlabs = slabCount(scenario);
+    const slabTasks = layouts.flatMap((layout, li) => Array.from({ length: nSlabs }, (_, slab) => ({ li, satIndex: layout.satIndex, slab })));
+    const slabsBy: SlabEvents[][] = layouts.map(() => []);
     const chunkTasks: { satIndex: number; chunk: number; items: PlannedPass[]; merge: SatelliteMerge }[] = [];
     const merges: SatelliteMerge[] = [];
     let totalS = 0;
@@ -105,22 +99,21 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
     await new Promise<void>((resolveAll, rejectAll) => {
       let failed = false;
       const idle: Worker[] = [];
-      const queue: ToWorker[] = passTasks.map((t, task) => ({ type: 'passes', task, satIndex: t.satIndex, station: t.station }));
-      let passesLeft = passTasks.length;
+      const queue: ToWorker[] = slabTasks.map((t, task) => ({ type: 'slab', task, satIndex: t.satIndex, slab: t.slab }));
+      let slabsLeft = slabTasks.length;
       let merged = 0;
       let doneS = 0;
       const ready = new Map<number, { partial: ChunkPartial; stepsFile: string | null }>();
       let chain: Promise<void> = Promise.resolve();
       const fail = (err: unknown) => { if (!failed) { failed = true; rejectAll(err); } };
       const pump = () => { while (!failed && idle.length > 0 && queue.length > 0) idle.shift()!.postMessage(queue.shift()!); };
-      // All passes in: the plan (the same as the in-process run's), then the chunk tasks.
+      // Every slab in: the plan (the same as the in-process run's), then the chunk tasks.
       const plan = () => {
-        const plans = layouts.map((layout, li) => ({ layout, plan: planFromPasses(scenario, layout, passesBy[li]) }));
+        const plans = layouts.map((layout, li) => ({ layout, plan: planFromSlabs(scenario, layout, slabsBy[li]) }));
         if (o.collectSeries) selectSeries(plans, o.seriesMaxSections ?? SERIES_MAX_SECTIONS);
         for (const { layout, plan: p } of plans) {
           const merge = createSatelliteMerge(scenario, layout, result);
           merges.push(merge);
-          for (const ps of p.passesByStation) for (const x of ps) result.passes.push(x);
           totalS += p.totalS;
           for (let c = 0; c + 1 < p.chunkStarts.length; c++) {
             const items = p.items.slice(p.chunkStarts[c], p.chunkStarts[c + 1]);
@@ -147,11 +140,12 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
       for (const w of pool) {
         w.on('message', (m: FromWorker) => {
           if (failed) return;
-          if (m.type === 'passes') {
-            const t = passTasks[m.task];
-            passesBy[t.li][t.station] = m.passes;
-            if (--passesLeft === 0) plan();
+          if (m.type === 'slab') {
+            const t = slabTasks[m.task];
+            slabsBy[t.li].push(m.events);
+            result.sgp4Calls += m.sgp4Calls;
             idle.push(w);
+            if (--slabsLeft === 0) plan();
             pump();
           } else if (m.type === 'progress') {
             doneS += m.doneS;
@@ -172,7 +166,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
         idle.push(w);
       }
       pump();
-      // While the workers find passes: the engines, once, here; their tables go to every worker before any chunk.
+      // While the workers search passes: the engines, once, here; their tables go to every worker before any chunk.
       try {
         const tables: [number, ElevationTable[]][] = [];
         for (const layout of layouts) {
@@ -186,7 +180,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
         fail(err);
         return;
       }
-      if (passTasks.length === 0) plan();
+      if (slabTasks.length === 0) plan();
     });
     if (writer) await writer.close();
     const networkDaily: DailyRow[] = [];

@@ -1,0 +1,405 @@
+/**
+ * Sweeping one chunk of a satellite's plan, in columns.
+ *
+ * The chunk's passes come in groups that overlap in time (a group is a run of
+ * grid times with at least one station in view). Each group is swept in
+ * windows of at most WINDOW_STEPS grid times:
+ *   1. the satellite's state on the window's grid times, once for all
+ *      stations (orbit nodes → interpolated TEME → Earth-fixed, geometry/columns.ts);
+ *   2. per pass in view, the station's look angles over its part of the window;
+ *   3. per link of that station, the whole budget over those steps (the
+ *      engine's evaluateColumns), then the pass, day, mask, rate, envelope and
+ *      series accumulators fed from the columns;
+ *   4. the network: per grid time, link and weather case, the one station
+ *      that carries the satellite (analysis/network.ts rule);
+ *   5. the steps sink (steps.csv and the like) gets the window's columns.
+ * Nothing per step outlives its window; the per-pass engine state (the
+ * rate-limited mount) carries from one window to the next.
+ */
+import type { LinkColumns } from '../budget/linkColumns.js';
+import { createLinkColumns, readStep } from '../budget/linkColumns.js';
+import type { ElevationTable } from '../budget/atmosphere.js';
+import { createLinkEngine, createStepBudget, type LinkEngine } from '../budget/engine.js';
+import type { LinkSpec, WeatherCase } from '../budget/types.js';
+import {
+  createSatelliteColumns, createStationColumns, satelliteEarthFixed, stationLook, type StationColumns,
+} from '../geometry/columns.js';
+import { createStationGeometry, type StationGeometry } from '../geometry/station.js';
+import { completePass, createOrbit } from '../passes/find.js';
+import type { Pass } from '../passes/types.js';
+import type { OrbitSource } from '../orbit/interpolated.js';
+import type { ResolvedScenario } from '../scenario/types.js';
+import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator, type DailyStepCase } from '../analysis/dailyAccumulator.js';
+import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
+import { networkEligible, networkOutranks, stationRank } from '../analysis/network.js';
+import { createPassAccumulator, type PassAccumulator } from '../analysis/passAccumulator.js';
+import { createRateHistogram, type RateHistogram } from '../analysis/rateHistogram.js';
+import { judgePass } from '../analysis/verdict.js';
+import type { SatelliteLayout } from './layout.js';
+import type { PlannedPass } from './plan.js';
+import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
+import { forEachRow, type StepPart, type StepWindow } from './window.js';
+
+/** Grid times per window: large enough to amortise the per-window work, small enough that the columns stay in cache. */
+export const WINDOW_STEPS = 512;
+
+export interface SweepOptions {
+  /** Steps in columns, window by window. */
+  onWindow?: StepSink;
+  /** Steps as records (slow; for checks). */
+  onStep?: (e: StepEvent) => void | Promise<void>;
+  collectSeries?: boolean;
+  seriesMaxPoints?: number;
+  /** Called after each pass with its duration (s). */
+  onPassDone?: (durationS: number) => void;
+}
+
+export interface Sweeper {
+  layout: SatelliteLayout;
+  engines: LinkEngine[];
+  orbit: OrbitSource;
+  sweepChunk(items: readonly PlannedPass[], chunk: number, options: SweepOptions): Promise<ChunkPartial>;
+}
+
+interface LinkRun {
+  link: LinkSpec;
+  engine: LinkEngine;
+  daily: DailyAccumulator[]; // per case
+  mask: MaskHistogram[]; // per case
+  rate: (RateHistogram | null)[]; // per case
+  envelope: Float64Array[]; // per case, when collecting series: [min | max | keyhole min]
+}
+
+interface StationRun {
+  name: string;
+  geometry: StationGeometry;
+  rank0: number;
+  rank1: number;
+  links: LinkRun[];
+  /** Per SatelliteLayout.linkNames index: index into `links`, or −1. */
+  byName: number[];
+  /** Free column buffers of this station (station columns and one LinkColumns per link). */
+  free: Slot[];
+}
+
+interface Slot { stn: StationColumns; cols: LinkColumns[]; bins: Int32Array }
+
+/** A pass being swept. */
+interface ItemRun {
+  item: PlannedPass;
+  pass: Pass;
+  st: StationRun;
+  acc: PassAccumulator[]; // per link
+  series: (PassSeriesData | null)[]; // per link
+  seriesEvery: number;
+  seriesCount: number[];
+}
+
+function emptyEnvelope(): Float64Array {
+  const e = new Float64Array(3 * ENVELOPE_BINS);
+  e.fill(Infinity, 0, ENVELOPE_BINS);
+  e.fill(-Infinity, ENVELOPE_BINS, 2 * ENVELOPE_BINS);
+  e.fill(Infinity, 2 * ENVELOPE_BINS);
+  return e;
+}
+
+/**
+ * Engines, geometry and reusable columns for one satellite. The expensive
+ * part is the engines' elevation tables; `tables` (one per layout station and
+ * link, in that order, e.g. `sweeper.engines.map((e) => e.table)` of a
+ * sweeper built elsewhere) skips building them.
+ */
+export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayout, tables?: readonly ElevationTable[], orbit?: OrbitSource): Sweeper {
+  const { startS, endS, stepS } = scenario.window;
+  const cases: WeatherCase[] = scenario.weatherCases;
+  const nCases = cases.length;
+  const sat = scenario.satellites[layout.satIndex];
+  const satOrbit = orbit ?? createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
+  const engines: LinkEngine[] = [];
+  const stations: StationRun[] = layout.stations.map((st) => {
+    const name = st.entry.station.name;
+    const links: LinkRun[] = st.links.map((link) => {
+      const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length] });
+      engines.push(engine);
+      // Accumulators live as long as the sweeper; each chunk takes (and empties) its share.
+      return {
+        link, engine,
+        daily: cases.map((c) => createDailyAccumulator({ startS, endS, link, weather: c.name, exportable: true })),
+        mask: cases.map((c) => createMaskHistogram({ station: name, link: link.name, weather: c.name })),
+        rate: cases.map((c) => (link.modcod.kind === 'fixed' ? createRateHistogram({ station: name, link: link.name, weather: c.name }) : null)),
+        envelope: [],
+      };
+    });
+    const [rank0, rank1] = stationRank(scenario.network, st.entry.station.name, st.entry.priority);
+    return {
+      name: st.entry.station.name, geometry: createStationGeometry(st.entry.station), rank0, rank1, links,
+      byName: layout.linkNames.map((n) => links.findIndex((l) => l.link.name === n)), free: [],
+    };
+  });
+  const nLinks = layout.linkNames.length;
+  const protoLink = layout.linkNames.map((n) => stations.flatMap((s) => s.links).find((l) => l.link.name === n)!.link);
+  const satCols = createSatelliteColumns(WINDOW_STEPS);
+  satCols.originS = startS; satCols.stepS = stepS;
+  const acquire = (st: StationRun): Slot => st.free.pop() ?? {
+    stn: createStationColumns(WINDOW_STEPS), cols: st.links.map(() => createLinkColumns(WINDOW_STEPS, nCases)), bins: new Int32Array(WINDOW_STEPS),
+  };
+  const policy = scenario.network;
+  const netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
+    startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: sat.name, exportable: true,
+  })));
+
+  async function sweepChunk(items: readonly PlannedPass[], chunk: number, o: SweepOptions): Promise<ChunkPartial> {
+    const seriesMax = o.seriesMaxPoints ?? 120;
+    const sgp4Before = satOrbit.sgp4Calls;
+    const full = o.onWindow !== undefined || o.onStep !== undefined;
+    const part: ChunkPartial = {
+      satIndex: layout.satIndex, chunk, passes: [], passLinks: [], series: [], daily: [], mask: [], rate: [], envelope: [],
+      stationSteps: 0, gridTimes: 0, linkSteps: 0, sgp4Calls: 0,
+    };
+    for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
+    // Network contact = a maximal run of grid times with at least one station in view (a group).
+    const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
+    const netCase: DailyStepCase = { usable: true, information_rate_bps: 0, es_over_n0_db: NaN };
+
+    const begin = (it: PlannedPass): ItemRun => {
+      const st = stations[it.station];
+      const pass = completePass(satOrbit, st.geometry, it.crossing, it.index);
+      part.passes.push(pass);
+      const expected = Math.max(1, it.kLast - it.kFirst + 1);
+      const run: ItemRun = {
+        item: it, pass, st, acc: [], series: [], seriesEvery: Math.max(1, Math.ceil(expected / seriesMax)), seriesCount: st.links.map(() => 0),
+      };
+      for (const lr of st.links) {
+        lr.engine.beginPass();
+        run.acc.push(createPassAccumulator({
+          link: lr.link,
+          pass: {
+            passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
+            maxElevationDeg: pass.maxElevationDeg, durationS: pass.durationS, clippedStart: pass.clippedStart, clippedEnd: pass.clippedEnd,
+          },
+          weatherCases: cases,
+        }));
+        run.series.push(o.collectSeries && it.seriesLinks?.includes(lr.link.name) ? {
+          passId: it.passId, link: lr.link.name, timeS: [], azimuthDeg: [], elevationDeg: [],
+          cases: cases.map((c) => ({ weather: c.name, marginDB: [], ebN0DB: [] })),
+        } : null);
+      }
+      return run;
+    };
+    const end = (run: ItemRun) => {
+      run.st.links.forEach((lr, l) => {
+        const summary = run.acc[l].finish();
+        part.passLinks.push(summary);
+        summary.cases.forEach((c, ci) => lr.daily[ci].endPass(run.pass.aosS, c.verdict));
+        const s = run.series[l];
+        if (s) part.series.push(s);
+      });
+      o.onPassDone?.(run.pass.durationS);
+    };
+    const closeNetContact = () => {
+      for (let li = 0; li < nLinks; li++) {
+        for (let ci = 0; ci < nCases; ci++) {
+          const nc = netContact[li][ci];
+          if (Number.isNaN(nc.startS)) continue;
+          netDaily[li][ci].endPass(nc.startS, judgePass(nc.usableS, nc.aboveS, nc.any).verdict);
+          nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0;
+        }
+      }
+    };
+
+    /** What the accumulators take from one pass-link over its part of a window. */
+    const accumulate = (run: ItemRun, l: number, slot: Slot, k0: number, n: number) => {
+      const lr = run.st.links[l];
+      const cols = slot.cols[l];
+      run.acc[l].addColumns(cols, 0, n, startS, k0, stepS);
+      const el = slot.stn.elevationDeg;
+      const limited = cols.mountLimited;
+      for (let ci = 0; ci < nCases; ci++) {
+        const c = cols.cases[ci];
+        lr.daily[ci].addColumns(startS, k0, stepS, 0, n, c.usable, c.informationRateBps, c.esN0DB);
+        const mh = lr.mask[ci];
+        for (let i = 0; i < n; i++) {
+          const b = slot.bins[i];
+          if (b >= 0) mh.addToBin(b, stepS, c.usable[i] === 1, c.informationRateBps[i], limited[i] === 1);
+        }
+        lr.rate[ci]?.addColumn(c.cOverN0DBHz, 0, n, stepS);
+        if (lr.envelope.length > 0) {
+          const env = lr.envelope[ci];
+          const lo = env.subarray(0, ENVELOPE_BINS), hi = env.subarray(ENVELOPE_BINS, 2 * ENVELOPE_BINS), kh = env.subarray(2 * ENVELOPE_BINS);
+          // Keyhole steps (unusable while the mount was rate-limited) apart: no elevation mask removes them (the mask finder leaves them out too).
+          for (let i = 0; i < n; i++) envelopeAdd(lo, hi, kh, el[i], c.marginDB[i], limited[i] === 1 && c.usable[i] === 0);
+        }
+      }
+      const s = run.series[l];
+      if (s) {
+        const every = run.seriesEvery;
+        let count = run.seriesCount[l];
+        for (let i = 0; i < n; i++, count++) {
+          if (count % every !== 0) continue;
+          s.timeS.push(startS + (k0 + i) * stepS); s.azimuthDeg.push(slot.stn.azimuthDeg[i]); s.elevationDeg.push(el[i]);
+          for (let ci = 0; ci < nCases; ci++) {
+            s.cases[ci].marginDB.push(cols.cases[ci].marginDB[i]);
+            s.cases[ci].ebN0DB.push(cols.cases[ci].ebN0DB[i]);
+          }
+        }
+        run.seriesCount[l] = count;
+      }
+    };
+
+    /** One station in view for a link over a window: per grid time the candidate parts. */
+    interface Active { run: ItemRun; slot: Slot; k0: number; n: number }
+    const network = (active: Active[], w0: number, w1: number) => {
+      for (let li = 0; li < nLinks; li++) {
+        const cands: Active[] = [];
+        const cl: number[] = [];
+        for (const x of active) {
+          const l = x.run.st.byName[li];
+          if (l >= 0) { cands.push(x); cl.push(l); }
+        }
+        if (cands.length === 0) continue;
+        for (let ci = 0; ci < nCases; ci++) {
+          const nc = netContact[li][ci];
+          const daily = netDaily[li][ci];
+          const take = (x: Active, l: number, i: number, t: number) => {
+            const c = x.slot.cols[l].cases[ci];
+            netCase.information_rate_bps = c.informationRateBps[i];
+            netCase.es_over_n0_db = c.esN0DB[i];
+            daily.add(t, stepS, netCase, x.run.st.links[l].link);
+            nc.usableS += stepS;
+            nc.any = true;
+          };
+          if (cands.length === 1) {
+            // One station in view: it carries the link wherever it is eligible.
+            const x = cands[0], l = cl[0];
+            const c = x.slot.cols[l].cases[ci];
+            for (let i = 0; i < x.n; i++) {
+              const t = startS + (x.k0 + i) * stepS;
+              if (Number.isNaN(nc.startS)) nc.startS = t;
+              nc.aboveS += stepS;
+              if (networkEligible(policy, c.usable[i] === 1, c.marginDB[i])) take(x, l, i, t);
+            }
+            continue;
+          }
+          for (let k = w0; k < w1; k++) {
+            let any = false;
+            let best = -1, bi = -1;
+            for (let a = 0; a < cands.length; a++) {
+              const x = cands[a];
+              const i = k - x.k0;
+              if (i < 0 || i >= x.n) continue;
+              any = true;
+              const c = x.slot.cols[cl[a]].cases[ci];
+              const m = c.marginDB[i];
+              if (!networkEligible(policy, c.usable[i] === 1, m)) continue;
+              if (best >= 0) {
+                const y = cands[best];
+                const bc = y.slot.cols[cl[best]].cases[ci];
+                if (!networkOutranks(policy, c.informationRateBps[i], m, x.run.st.rank0, x.run.st.rank1,
+                  bc.informationRateBps[bi], bc.marginDB[bi], y.run.st.rank0, y.run.st.rank1)) continue;
+              }
+              best = a; bi = i;
+            }
+            if (!any) continue;
+            const t = startS + k * stepS;
+            if (Number.isNaN(nc.startS)) nc.startS = t;
+            nc.aboveS += stepS;
+            if (best >= 0) take(cands[best], cl[best], bi, t);
+          }
+        }
+      }
+    };
+
+    const stepRecord = o.onStep ? createStepBudget(cases) : null;
+    const event: StepEvent | null = o.onStep ? { passId: '', satellite: sat.name, station: '', link: protoLink[0], timeS: NaN, step: stepRecord! } : null;
+    const emit = async (active: Active[], w0: number, w1: number) => {
+      if (!o.onWindow && !o.onStep) return;
+      const parts: StepPart[] = [];
+      for (const x of active) {
+        x.run.st.links.forEach((lr, l) => parts.push({
+          passId: x.run.item.passId, satellite: sat.name, station: x.run.st.name, link: lr.link, modeNames: lr.engine.modeNames,
+          k0: x.k0, n: x.n, stn: x.slot.stn, cols: x.slot.cols[l],
+        }));
+      }
+      const w: StepWindow = { startS, stepS, k0: w0, k1: w1, parts };
+      if (o.onWindow) { const wait = o.onWindow(w); if (wait) await wait; }
+      if (o.onStep && event && stepRecord) {
+        await forEachRow(w, (p, i, t) => {
+          readStep(p.stn, p.cols, i, t, p.modeNames, stepRecord);
+          event.passId = p.passId; event.station = p.station; event.link = p.link; event.timeS = t;
+          return o.onStep!(event);
+        });
+      }
+    };
+
+    // Groups: passes whose grid intervals overlap or touch one after another.
+    let i = 0;
+    while (i < items.length) {
+      const it = items[i];
+      if (it.kLast < it.kFirst) { end(begin(it)); i++; continue; } // a pass too short to hold a grid point
+      const group: PlannedPass[] = [it];
+      let maxLast = it.kLast;
+      let j = i + 1;
+      while (j < items.length && (items[j].kLast < items[j].kFirst || items[j].kFirst <= maxLast)) {
+        if (items[j].kLast >= items[j].kFirst) { group.push(items[j]); if (items[j].kLast > maxLast) maxLast = items[j].kLast; }
+        j++;
+      }
+      // Step-less passes inside the group's span are summarised in order too.
+      for (let q = i + 1; q < j; q++) if (items[q].kLast < items[q].kFirst) end(begin(items[q]));
+      const K0 = it.kFirst;
+      const runs = new Map<PlannedPass, ItemRun>();
+      for (let w0 = K0; w0 <= maxLast; w0 += WINDOW_STEPS) {
+        const w1 = Math.min(w0 + WINDOW_STEPS, maxLast + 1);
+        const n = w1 - w0;
+        satCols.n = n; satCols.k0 = w0;
+        satOrbit.fillGrid(w0, n, satCols.teme);
+        satelliteEarthFixed(satCols);
+        part.gridTimes += n;
+        const active: Active[] = [];
+        for (const g of group) {
+          if (g.kFirst >= w1 || g.kLast < w0) continue;
+          let run = runs.get(g);
+          if (!run) { run = begin(g); runs.set(g, run); }
+          const a = Math.max(g.kFirst, w0), b = Math.min(g.kLast + 1, w1), m = b - a;
+          const slot = acquire(run.st);
+          stationLook(run.st.geometry.frame, satCols, a - w0, b - w0, slot.stn);
+          const mh = run.st.links[0].mask[0];
+          for (let q = 0; q < m; q++) slot.bins[q] = mh.binOf(slot.stn.elevationDeg[q]);
+          part.stationSteps += m;
+          for (let l = 0; l < run.st.links.length; l++) {
+            run.st.links[l].engine.evaluateColumns(satCols, a - w0, slot.stn, m, slot.cols[l], full);
+            part.linkSteps += m;
+            accumulate(run, l, slot, a, m);
+          }
+          active.push({ run, slot, k0: a, n: m });
+        }
+        network(active, w0, w1);
+        await emit(active, w0, w1);
+        for (const x of active) {
+          x.run.st.free.push(x.slot);
+          if (x.run.item.kLast < w1) { end(x.run); runs.delete(x.run.item); }
+        }
+      }
+      closeNetContact();
+      i = j;
+    }
+
+    // The chunk's share of each accumulator (each is emptied for the next chunk).
+    for (const st of stations) {
+      for (const lr of st.links) {
+        for (let ci = 0; ci < nCases; ci++) {
+          part.daily.push(lr.daily[ci].takeState());
+          part.mask.push(lr.mask[ci].takeState());
+          const rh = lr.rate[ci];
+          part.rate.push(rh ? rh.takeState() : null);
+          if (lr.envelope.length > 0) part.envelope.push(lr.envelope[ci]);
+        }
+        lr.envelope = [];
+      }
+    }
+    for (const accs of netDaily) for (const a of accs) part.daily.push(a.takeState());
+    part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
+    return part;
+  }
+
+  return { layout, engines, orbit: satOrbit, sweepChunk };
+}

@@ -1,0 +1,19 @@
+/**
+ * The sweep: from orbit nodes to accumulators. Per satellite:
+ *   layout.ts   which stations and links it has;
+ *   plan.ts     its passes (searched in slabs on the interpolated orbit) and the chunks of its sweep;
+ *   chunk.ts    a chunk swept in windows of grid times, in columns: satellite state (once),
+ *               station look angles, each link's budget (budget/engine.ts evaluateColumns), then the
+ *               pass, day, network, mask, rate, envelope and series accumulators fed from the columns;
+ *   window.ts   a window's columns as the steps writers see them;
+ *   merge.ts    chunks merged in order into the run's result;
+ *   pipeline.ts all of it in this thread; parallel.ts + worker.ts on worker threads, same result.
+ */
+export * from './types.js';
+export * from './window.js';
+export * from './layout.js';
+export * from './plan.js';
+export { createSweeper, WINDOW_STEPS, type Sweeper, type SweepOptions } from './chunk.js';
+export * from './merge.js';
+export { runPipeline } from './pipeline.js';
+export { runPipelineParallel, checkWorkers, type ParallelPipelineOptions } from './parallel.js';
