@@ -79,9 +79,10 @@ export interface DailyAccumulator {
   /**
    * Steps from..to−1 of columns (step i at originS + (k0 + i)·dtS), as `add` would take
    * them one by one: `usable` (1/0), information rate (b/s) and Es/N0 (dB);
-   * `link` as in `add`.
+   * `link` as in `add`. With `onlyUsable` the unusable steps are not added at
+   * all (as a network feed adds only the steps a station carries).
    */
-  addColumns(originS: number, k0: number, dtS: number, from: number, to: number, usable: Uint8Array, rateBps: Float64Array, esN0DB: Float64Array, link?: LinkSpec): void;
+  addColumns(originS: number, k0: number, dtS: number, from: number, to: number, usable: Uint8Array, rateBps: Float64Array, esN0DB: Float64Array, link?: LinkSpec, onlyUsable?: boolean): void;
   /** Close the pass whose steps were just added: counted on the day of `aosS`. */
   endPass(aosS: number, verdict: Verdict): void;
   rows(): DailyRow[];
@@ -179,43 +180,75 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
     return f;
   };
 
-  /** One step: the whole per-step rule. */
-  function step1(timeS: number, dtS: number, usable: boolean, rateBps: number, es: number, l: LinkSpec): void {
-    pendingSteps++;
-    const d = dayIndex(timeS);
-    const b = bins[d];
-    if (usable) {
-      if (exportable) {
-        const n = runs.length;
-        if (n === 0 || timeS - runs[n - 1] > CONTIGUOUS_EPS_S) runs.push(timeS, timeS + dtS);
-        else if (timeS + dtS > runs[n - 1]) runs[n - 1] = timeS + dtS;
-        touch(d);
+  /**
+   * The per-step rule over steps [from, to) of columns (step i at originS +
+   * (k0 + i)·dtS), a day at a time, the day's sums in locals (the same
+   * arithmetic in the same order as one step at a time); `add` runs it on
+   * one-entry columns.
+   */
+  function columns(originS: number, k0: number, dtS: number, from: number, to: number,
+    usable: Uint8Array, rateBps: Float64Array, es: Float64Array, l: LinkSpec, onlyUsable: boolean): void {
+    let i = from;
+    while (i < to) {
+      const d = dayIndex(originS + (k0 + i) * dtS);
+      const dayEndS = d === count - 1 ? Infinity : (firstDay + d + 1) * SECONDS_PER_DAY;
+      let j = i + 1;
+      while (j < to && originS + (k0 + j) * dtS < dayEndS) j++;
+      const b = bins[d];
+      let us = b.usableS, bits = adaptive ? b.adaptiveBits : b.fixedBits;
+      let fit: ModeFit | null = null;
+      if (adaptive) {
+        if (d !== fitDay || l !== fitLink || !fitAcc) { fitAcc = fitFor(l, d); fitDay = d; fitLink = l; }
+        fit = fitAcc;
       }
-      const endT = timeS + dtS;
-      // A step continuing the last usable interval within its day leaves the gaps as they are.
-      if (d === gapDay && timeS >= lastUsableStartS && timeS - lastUsableEndS <= CONTIGUOUS_EPS_S && timeS - lastUsableEndS >= -CONTIGUOUS_EPS_S) {
-        lastUsableStartS = timeS;
-        if (endT > lastUsableEndS) lastUsableEndS = endT;
-      } else {
-        usableAt(timeS, d, endT);
+      let q = i;
+      while (q < j) {
+        if (usable[q] !== 1) {
+          if (!onlyUsable) { pendingSteps++; if (fit) fit.add(es[q], dtS); }
+          q++;
+          continue;
+        }
+        // A run of usable steps [q, r): contiguous grid times, so one usable interval.
+        let r = q + 1;
+        while (r < j && usable[r] === 1) r++;
+        pendingSteps += r - q;
+        const t = originS + (k0 + q) * dtS;
+        const tLast = originS + (k0 + r - 1) * dtS;
+        const endT = tLast + dtS;
+        if (exportable) {
+          const n = runs.length;
+          if (n === 0 || t - runs[n - 1] > CONTIGUOUS_EPS_S) runs.push(t, endT);
+          else if (endT > runs[n - 1]) runs[n - 1] = endT;
+          touch(d);
+        }
+        // A run continuing the last usable interval within its day leaves the gaps as they are.
+        if (d === gapDay && t >= lastUsableStartS && t - lastUsableEndS <= CONTIGUOUS_EPS_S && t - lastUsableEndS >= -CONTIGUOUS_EPS_S) {
+          if (endT > lastUsableEndS) lastUsableEndS = endT;
+        } else {
+          usableAt(t, d, endT);
+        }
+        lastUsableStartS = tLast;
+        for (let x = q; x < r; x++) {
+          us += dtS;
+          bits += (adaptive ? rateBps[x] : fixedRateBps) * dtS;
+          if (fit) fit.add(es[x], dtS);
+        }
+        q = r;
       }
-      b.usableS += dtS;
-      if (adaptive) b.adaptiveBits += rateBps * dtS;
-      else b.fixedBits += fixedRateBps * dtS;
-    }
-    if (adaptive) {
-      if (d !== fitDay || l !== fitLink || !fitAcc) { fitAcc = fitFor(l, d); fitDay = d; fitLink = l; }
-      fitAcc.add(es, dtS);
+      b.usableS = us;
+      if (adaptive) b.adaptiveBits = bits; else b.fixedBits = bits;
+      i = j;
     }
   }
+  const one = { usable: new Uint8Array(1), rate: new Float64Array(1), es: new Float64Array(1) };
 
   return {
     add(timeS, dtS, c, stepLink) {
-      step1(timeS, dtS, c.usable, c.information_rate_bps, c.es_over_n0_db, stepLink ?? link);
+      one.usable[0] = c.usable ? 1 : 0; one.rate[0] = c.information_rate_bps; one.es[0] = c.es_over_n0_db;
+      columns(timeS, 0, dtS, 0, 1, one.usable, one.rate, one.es, stepLink ?? link, false);
     },
-    addColumns(originS, k0, dtS, from, to, usable, rateBps, esN0DB, stepLink) {
-      const l = stepLink ?? link;
-      for (let i = from; i < to; i++) step1(originS + (k0 + i) * dtS, dtS, usable[i] === 1, rateBps[i], esN0DB[i], l);
+    addColumns(originS, k0, dtS, from, to, usable, rateBps, esN0DB, stepLink, onlyUsable = false) {
+      columns(originS, k0, dtS, from, to, usable, rateBps, esN0DB, stepLink ?? link, onlyUsable);
     },
     endPass(aosS, verdict) {
       // Fit time per day touched (every link the pass's steps came from, together).

@@ -9,3 +9,4 @@ export * from './network.js';
 export * from './maskHistogram.js';
 export * from './rateHistogram.js';
 export * from './stats.js';
+export * from './passTable.js';

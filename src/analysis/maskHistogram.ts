@@ -47,6 +47,8 @@ export interface MaskHistogram {
   binOf(elevationDeg: number): number;
   /** `add` into a bin found with `binOf` (k ≥ 0). */
   addToBin(k: number, dtS: number, usable: boolean, rateBps: number, mountLimited: boolean): void;
+  /** `addToBin` for steps 0 … n−1 of columns: bins from `binOf` (−1: skipped), usable and mount-limited flags (1/0), rates. */
+  addBins(bins: Int32Array, usable: Uint8Array, rateBps: Float64Array, mountLimited: Uint8Array, n: number, dtS: number): void;
   /** The bin arrays (shared, not copied): what a chunk of a parallel run hands back. */
   exportState(): MaskHistogramState;
   /** The bins touched since the last take, copied (firstBin on), and those bins emptied: one histogram reused chunk after chunk. */
@@ -114,6 +116,12 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
     keyholeS,
     binOf,
     addToBin,
+    addBins(kk, usable, rateBps, limited, n, dtS) {
+      for (let i = 0; i < n; i++) {
+        const k = kk[i];
+        if (k >= 0) addToBin(k, dtS, usable[i] === 1, rateBps[i], limited[i] === 1);
+      }
+    },
     add(elevationDeg, dtS, usable, rateBps, mountLimited = false) {
       const k = binOf(elevationDeg);
       if (k >= 0) addToBin(k, dtS, usable, rateBps, mountLimited);

@@ -5,7 +5,8 @@
  */
 import type { AdaptiveMode, LinkSpec } from '../budget/types.js';
 
-const thresholdsCache = new WeakMap<LinkSpec, { key: string; th: Float64Array }>();
+const thresholdsCache = new WeakMap<LinkSpec, { extra: number; modes: readonly AdaptiveMode[]; th: Float64Array }>();
+const ratesCache = new WeakMap<LinkSpec, { rs: number; modes: readonly AdaptiveMode[]; rates: Float64Array }>();
 
 /**
  * Fit thresholds in Es/N0 (dB) per mode: required Es/N0 + required margin +
@@ -14,19 +15,24 @@ const thresholdsCache = new WeakMap<LinkSpec, { key: string; th: Float64Array }>
 export function modeThresholdsDB(link: LinkSpec): Float64Array {
   if (link.modcod.kind !== 'adaptive') return new Float64Array(0);
   const extra = link.requiredMarginDB + link.implementationLossDB;
-  const key = `${extra}|${link.modcod.modes.map((m) => m.requiredEsN0DB).join(',')}`;
+  const modes = link.modcod.modes;
   const hit = thresholdsCache.get(link);
-  if (hit && hit.key === key) return hit.th;
-  const th = Float64Array.from(link.modcod.modes, (m: AdaptiveMode) => m.requiredEsN0DB + extra);
-  thresholdsCache.set(link, { key, th });
+  if (hit && hit.extra === extra && hit.modes === modes) return hit.th;
+  const th = Float64Array.from(modes, (m: AdaptiveMode) => m.requiredEsN0DB + extra);
+  thresholdsCache.set(link, { extra, modes, th });
   return th;
 }
 
-/** Information rate of each mode (b/s): R_s · η. */
+/** Information rate of each mode (b/s): R_s · η. The same array for the same link (do not modify it). */
 export function modeRatesBps(link: LinkSpec): Float64Array {
   if (link.modcod.kind !== 'adaptive') return new Float64Array(0);
   const rs = link.modcod.symbolRateBaud;
-  return Float64Array.from(link.modcod.modes, (m: AdaptiveMode) => rs * m.efficiencyBitsPerSymbol);
+  const modes = link.modcod.modes;
+  const hit = ratesCache.get(link);
+  if (hit && hit.rs === rs && hit.modes === modes) return hit.rates;
+  const rates = Float64Array.from(modes, (m: AdaptiveMode) => rs * m.efficiencyBitsPerSymbol);
+  ratesCache.set(link, { rs, modes, rates });
+  return rates;
 }
 
 /**

@@ -39,6 +39,9 @@ export interface PassAccumulator {
   finish(): PassLinkSummary;
 }
 
+/** The case columns the summary reads. */
+type OneCase = Pick<LinkColumns['cases'][number], 'marginDB' | 'usable' | 'informationRateBps' | 'esN0DB'>;
+
 interface CaseState {
   weather: string;
   /** Index of this case in the last step's `cases`, to avoid a search per step. */
@@ -89,25 +92,38 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
   }));
   let steps = 0;
   let lastTimeS = -Infinity;
+  const one: OneCase = { marginDB: new Float64Array(1), usable: new Uint8Array(1), informationRateBps: new Float64Array(1), esN0DB: new Float64Array(1) };
   let finished = false;
 
-  /** One step of one case: the whole per-step rule. */
-  function step1(s: CaseState, timeS: number, dtS: number, m: number, usable: boolean, rateBps: number, es: number): void {
-    if (!Number.isNaN(m)) {
-      if (m < s.minMarginDB) s.minMarginDB = m;
-      if (m > s.maxMarginDB) s.maxMarginDB = m;
-      s.marginTimeSum += m * dtS;
-      s.marginTimeS += dtS;
-      s.marginSum += m;
-      s.marginSteps++;
+  /**
+   * The per-step rule over entries [from, to) of one case's columns (the
+   * state in locals); `add` runs it on one-entry columns.
+   */
+  function caseColumns(s: CaseState, c: OneCase,  from: number, to: number, originS: number, k0: number, dtS: number): void {
+    const margin = c.marginDB, usable = c.usable, rate = c.informationRateBps, es = c.esN0DB;
+    let min = s.minMarginDB, max = s.maxMarginDB, mts = s.marginTimeSum, mt = s.marginTimeS, ms = s.marginSum, mn = s.marginSteps;
+    let us = s.usableS, bits = s.adaptiveBits;
+    for (let i = from; i < to; i++) {
+      const m = margin[i];
+      if (m === m) {
+        if (m < min) min = m;
+        if (m > max) max = m;
+        mts += m * dtS;
+        mt += dtS;
+        ms += m;
+        mn++;
+      }
+      if (usable[i] === 1) {
+        const t = originS + (k0 + i) * dtS;
+        if (s.usableStartS === null) s.usableStartS = t;
+        s.usableEndS = t;
+        us += dtS;
+        if (adaptive) bits += rate[i] * dtS;
+      }
     }
-    if (usable) {
-      if (s.usableStartS === null) s.usableStartS = timeS;
-      s.usableEndS = timeS;
-      s.usableS += dtS;
-      if (adaptive) s.adaptiveBits += rateBps * dtS;
-    }
-    if (adaptive) s.fit.add(es, dtS);
+    s.minMarginDB = min; s.maxMarginDB = max; s.marginTimeSum = mts; s.marginTimeS = mt; s.marginSum = ms; s.marginSteps = mn;
+    s.usableS = us; s.adaptiveBits = bits;
+    if (adaptive) for (let i = from; i < to; i++) s.fit.add(es[i], dtS);
   }
 
   function checkTime(timeS: number): void {
@@ -122,19 +138,15 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
       steps++;
       for (const s of states) {
         const c = findCase(step, s);
-        step1(s, timeS, dtS, c.margin_db, c.usable, c.information_rate_bps, c.es_over_n0_db);
+        one.marginDB[0] = c.margin_db; one.usable[0] = c.usable ? 1 : 0; one.informationRateBps[0] = c.information_rate_bps; one.esN0DB[0] = c.es_over_n0_db;
+        caseColumns(s, one, 0, 1, timeS, 0, dtS);
       }
     },
     addColumns(cols, from, to, originS, k0, dtS) {
       if (to <= from) return;
       checkTime(originS + (k0 + from) * dtS);
       if (cols.cases.length !== states.length) throw new Error(`pass accumulator ${pass.passId}: columns have ${cols.cases.length} weather cases, expected ${states.length}`);
-      for (let k = 0; k < states.length; k++) {
-        const s = states[k];
-        const c = cols.cases[k];
-        const margin = c.marginDB, usable = c.usable, rate = c.informationRateBps, es = c.esN0DB;
-        for (let i = from; i < to; i++) step1(s, originS + (k0 + i) * dtS, dtS, margin[i], usable[i] === 1, rate[i], es[i]);
-      }
+      for (let k = 0; k < states.length; k++) caseColumns(states[k], cols.cases[k], from, to, originS, k0, dtS);
       steps += to - from;
       lastTimeS = originS + (k0 + to - 1) * dtS;
     },

@@ -5,7 +5,7 @@
  * The evaluators reuse one argument object each, so a call does not allocate.
  */
 import {
-  cosinePowerExponent, cosinePowerGainDBi, parabolicBeamwidthDeg, parabolicGainAtDBi,
+  cosinePowerExponent, cosinePowerGainColumnDBi, cosinePowerGainDBi, parabolicBeamwidthDeg, parabolicGainAtDBi,
   parabolicGainDBi, tabulatedGainDBi, validateGainTable,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
@@ -24,6 +24,12 @@ export interface AntennaPattern {
   beamwidthDeg: number;
   /** Gain at an off-boresight angle (deg), dBi. */
   gainAtDBi(offBoresightDeg: number): number;
+  /**
+   * gainAtDBi(off[i] + addDeg) for i < n into out: the loop inside each
+   * pattern, so each calls its model directly (a per-step call through
+   * `gainAtDBi` costs a dynamic dispatch and a boxed result).
+   */
+  gainColumnDBi(off: Float64Array, addDeg: number, n: number, out: Float64Array): void;
   /** Model name for explain/provenance. */
   source: string;
   /**
@@ -59,6 +65,7 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
       const g = spec.gainDBi ?? 0;
       return {
         kind: spec.kind, peakGainDBi: g, beamwidthDeg: NaN, gainAtDBi: () => g,
+        gainColumnDBi: (_off, _add, n, out) => { out.fill(g, 0, n); },
         source: 'isotropic (constant gain)', ...equivalent(g),
       };
     }
@@ -69,6 +76,9 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
       return {
         kind: spec.kind, peakGainDBi: peak, beamwidthDeg: bw,
         gainAtDBi: (off) => { args.offBoresightDeg = off; return parabolicGainAtDBi(args); },
+        gainColumnDBi: (off, add, n, out) => {
+          for (let i = 0; i < n; i++) { args.offBoresightDeg = off[i] + add; out[i] = parabolicGainAtDBi(args); }
+        },
         source: 'dish G = η(πD/λ)², θ3dB ≈ 70λ/D, main lobe 12(θ/θ3dB)²',
         apertureDiameterM: spec.diameterM, apertureEfficiency: spec.efficiency,
       };
@@ -79,6 +89,7 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
       return {
         kind: spec.kind, peakGainDBi: spec.peakGainDBi, beamwidthDeg: spec.beamwidthDeg,
         gainAtDBi: (off) => { args.offBoresightDeg = off; return cosinePowerGainDBi(args); },
+        gainColumnDBi: (off, add, n, out) => cosinePowerGainColumnDBi(args, off, add, n, out),
         source: `G0 + 10 log10(cos^n θ), n = ${n.toFixed(3)} from θ3dB`, ...equivalent(spec.peakGainDBi),
       };
     }
@@ -90,6 +101,7 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
       return {
         kind: spec.kind, peakGainDBi: peak, beamwidthDeg: NaN,
         gainAtDBi: (off) => tabulatedGainDBi(t, off),
+        gainColumnDBi: (off, add, n, out) => { for (let i = 0; i < n; i++) out[i] = tabulatedGainDBi(t, off[i] + add); },
         source: 'tabulated pattern, linear in dB', ...equivalent(peak),
       };
     }

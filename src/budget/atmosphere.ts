@@ -349,6 +349,23 @@ export function tableIntervals(table: ElevationTable, elevationDeg: Float64Array
   }
 }
 
+/**
+ * Two tabulated terms (flat indices ka, kb) over a column's intervals, into
+ * outA and outB: the pair the summaries always need (total attenuation and
+ * G/T) in one pass over the table rows.
+ */
+export function tableTermPairColumn(
+  table: ElevationTable, ka: number, kb: number, n: number, lo: Int32Array, hiOff: Int32Array, frac: Float64Array, outA: Float64Array, outB: Float64Array,
+): void {
+  const v = table.values;
+  for (let i = 0; i < n; i++) {
+    const l = lo[i], h = hiOff[i], f = frac[i];
+    const a = v[l + ka], b = v[l + kb];
+    outA[i] = a + f * (v[h + ka] - a);
+    outB[i] = b + f * (v[h + kb] - b);
+  }
+}
+
 /** One tabulated term (flat index k = case × TERM_COUNT + term) over a column's intervals, into out[0 … n−1]. */
 export function tableTermColumn(table: ElevationTable, k: number, n: number, lo: Int32Array, hiOff: Int32Array, frac: Float64Array, out: Float64Array): void {
   const v = table.values;

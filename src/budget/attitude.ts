@@ -46,7 +46,7 @@ export function lineOfSightTeme(sample: GeometrySample, out: Float64Array = los)
 /** Angle (deg) between two unit vectors, robust at small angles (atan2 of |a×b| and a·b). */
 export function angleBetweenDeg(ax: number, ay: number, az: number, bx: number, by: number, bz: number): number {
   const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
-  return Math.atan2(Math.hypot(cx, cy, cz), ax * bx + ay * by + az * bz) / RAD;
+  return Math.atan2(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz) / RAD;
 }
 
 /** Normalised copy of a body-frame or TEME boresight; rejects the zero vector. */
@@ -70,12 +70,12 @@ function offBoresightDeg(
   if (kind === 'tracking') return 0;
   if (kind === 'inertial') return angleBetweenDeg(b[0], b[1], b[2], ux, uy, uz);
   // Nadir-pointing body frame in TEME.
-  const rn = Math.hypot(rx, ry, rz);
+  const rn = Math.sqrt(rx * rx + ry * ry + rz * rz);
   const zx = -rx / rn, zy = -ry / rn, zz = -rz / rn;
   if (b[0] === 0 && b[1] === 0 && b[2] === 1) return angleBetweenDeg(zx, zy, zz, ux, uy, uz);
   const vzc = vx * zx + vy * zy + vz * zz;
   let xx = vx - vzc * zx, xy = vy - vzc * zy, xz = vz - vzc * zz;
-  const xn = Math.hypot(xx, xy, xz);
+  const xn = Math.sqrt(xx * xx + xy * xy + xz * xz);
   xx /= xn; xy /= xn; xz /= xn;
   const yx = zy * xz - zz * xy, yy = zz * xx - zx * xz, yz = zx * xy - zy * xx;
   const bx = b[0] * xx + b[1] * yx + b[2] * zx;
@@ -104,11 +104,26 @@ export function spacecraftOffBoresightColumn(
   pointing: SpacecraftPointing, boresight: readonly number[],
   sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: Float64Array,
 ): void {
-  if (pointing.kind === 'tracking') { out.fill(0, 0, n); return; }
+  const kind = pointing.kind;
+  if (kind === 'tracking') { out.fill(0, 0, n); return; }
   const { rx, ry, rz, vx, vy, vz } = sat.teme;
-  for (let i = 0; i < n; i++) {
-    const j = satFrom + i;
-    out[i] = offBoresightDeg(pointing.kind, boresight, rx[j], ry[j], rz[j], vx[j], vy[j], vz[j], stn.losX[i], stn.losY[i], stn.losZ[i]);
+  const ux = stn.losX, uy = stn.losY, uz = stn.losZ;
+  const b0 = boresight[0], b1 = boresight[1], b2 = boresight[2];
+  // One loop per case, each with only small inlinable calls (a per-step call returning a number costs a boxed result).
+  if (kind === 'inertial') {
+    for (let i = 0; i < n; i++) out[i] = angleBetweenDeg(b0, b1, b2, ux[i], uy[i], uz[i]);
+  } else if (b0 === 0 && b1 === 0 && b2 === 1) {
+    for (let i = 0; i < n; i++) {
+      const j = satFrom + i;
+      const x = rx[j], y = ry[j], z = rz[j];
+      const rn = Math.sqrt(x * x + y * y + z * z);
+      out[i] = angleBetweenDeg(-x / rn, -y / rn, -z / rn, ux[i], uy[i], uz[i]);
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const j = satFrom + i;
+      out[i] = offBoresightDeg(kind, boresight, rx[j], ry[j], rz[j], vx[j], vy[j], vz[j], ux[i], uy[i], uz[i]);
+    }
   }
 }
 

@@ -27,21 +27,21 @@
  * (P.834 refraction, from the sample), clamped to 0–90°.
  */
 import {
-  adaptiveModeTable, BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
+  adaptiveModeTable, BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossColumnDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
-import { dopplerRateHzS, dopplerShiftHz } from '../geometry/doppler.js';
+import { dopplerColumns } from '../geometry/doppler.js';
 import {
   createSatelliteColumns, createStationColumns, type SatelliteColumns, type StationColumns,
 } from '../geometry/columns.js';
 import type { GeometrySample } from '../geometry/types.js';
 import { antennaPattern, type AntennaPattern } from './antenna.js';
 import {
-  atmosphereAt, buildElevationTable, createAtmosphereContext, tableIntervals, tableTermColumn, TERM, TERM_COUNT,
+  atmosphereAt, buildElevationTable, createAtmosphereContext, tableIntervals, tableTermPairColumn, TERM, TERM_COUNT,
   type AtmosphereContext, type ElevationTable,
 } from './atmosphere.js';
 import { azElSeparationDeg, lineOfSightTeme, spacecraftOffBoresightColumn, unitVector } from './attitude.js';
-import { createLinkColumns, readStep, type LinkColumns } from './linkColumns.js';
+import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from './linkColumns.js';
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMount, type MountState } from './mount.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
@@ -94,7 +94,15 @@ export interface LinkEngine {
    * filled per case (total attenuation, G/T, C/N0, Es/N0, Eb/N0, margin,
    * usable, mode, rate); the individual atmospheric and noise terms are not.
    */
-  evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full?: boolean): LinkColumns;
+  evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full?: boolean, spacecraftOffBoresightDeg?: Float64Array): LinkColumns;
+  /**
+   * Links whose spacecraft antennas point alike (same pointing mode and
+   * boresight) share this key: their spacecraft off-boresight angles are equal
+   * and can be computed once (spacecraftOffBoresightColumn) and passed in.
+   */
+  spacecraftPointingKey: string;
+  /** This link's spacecraft off-boresight angle over a run of steps (deg), into out[0 … n−1]. */
+  spacecraftOffBoresight(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: Float64Array): void;
   /** Adaptive mode names by index (empty for a fixed-rate link). */
   modeNames: readonly string[];
   /**
@@ -195,9 +203,6 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   }
   const k = BOLTZMANN_DBW_PER_K_HZ;
   const fHz = f * 1e9;
-  const fslArgs = { distanceKm: 0, frequencyGHz: f };
-  const dopArgs = { frequencyHz: fHz, rangeRateKmS: 0 };
-  const rateArgs = { frequencyHz: fHz, rangeAccelKmS2: 0 };
 
   const scPointing = link.spacecraft.pointing;
   const scBoresight: number[] = scPointing.kind === 'nadir' ? unitVector(scPointing.boresightBody)
@@ -247,143 +252,162 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const modeTable = mc.kind === 'adaptive' ? adaptiveModeTable(modes, reqMargin) : null;
   const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
   const modeNames = modes.map((m) => m.name);
+  const modeReq = Float64Array.from(modes, (m) => m.requiredEsN0DB);
   // Ground pointing loss of a program track when the mount does not lag (lag 0: the error alone).
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
-  function pointingLoss(p: AntennaPattern, offDeg: number, errDeg: number, gainAtOff: number): number {
-    if (!(errDeg > 0)) return 0;
-    const l = gainAtOff - p.gainAtDBi(offDeg + errDeg);
-    return l > 0 ? l : 0;
-  }
-
-  // Scratch columns, grown on demand.
-  let cap = 0;
-  let scOff = new Float64Array(0), scGain = new Float64Array(0), scLoss = new Float64Array(0);
-  let gOff = new Float64Array(0), gGain = new Float64Array(0), gLoss = new Float64Array(0);
-  let lo = new Int32Array(0), hiOff = new Int32Array(0), frac = new Float64Array(0), fixedLoss = new Float64Array(0);
+  // Scratch columns, grown on demand (held in one object so the loops below take them as locals).
+  const sc = { cap: 0, off: new Float64Array(0), gain: new Float64Array(0), loss: new Float64Array(0), gOff: new Float64Array(0),
+    gGain: new Float64Array(0), gLoss: new Float64Array(0), lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), fixedLoss: new Float64Array(0) };
   function scratch(n: number): void {
-    if (n <= cap) return;
-    cap = Math.max(n, 2 * cap);
-    scOff = new Float64Array(cap); scGain = new Float64Array(cap); scLoss = new Float64Array(cap);
-    gOff = new Float64Array(cap); gGain = new Float64Array(cap); gLoss = new Float64Array(cap);
-    lo = new Int32Array(cap); hiOff = new Int32Array(cap); frac = new Float64Array(cap); fixedLoss = new Float64Array(cap);
+    if (n <= sc.cap) return;
+    const cap = Math.max(n, 2 * sc.cap);
+    sc.cap = cap;
+    sc.off = new Float64Array(cap); sc.gain = new Float64Array(cap); sc.loss = new Float64Array(cap);
+    sc.gOff = new Float64Array(cap); sc.gGain = new Float64Array(cap); sc.gLoss = new Float64Array(cap);
+    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.fixedLoss = new Float64Array(cap);
   }
 
-  function evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full = true): LinkColumns {
+  /** Spacecraft antenna gain at the off-boresight angle and the pointing loss of the attitude error (≥ 0). */
+  function spacecraftGains(off: Float64Array, n: number, gain: Float64Array, loss: Float64Array): void {
+    scAnt.gainColumnDBi(off, 0, n, gain);
+    if (!(scErrDeg > 0)) { loss.fill(0, 0, n); return; }
+    scAnt.gainColumnDBi(off, scErrDeg, n, loss);
+    for (let i = 0; i < n; i++) {
+      const l = gain[i] - loss[i];
+      loss[i] = l > 0 ? l : 0;
+    }
+  }
+
+  /** Ground antenna: off-boresight angle, gain and pointing loss; the mount lag and flag. */
+  function groundTerms(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns,
+    gOffA: Float64Array, gGainA: Float64Array, gLossA: Float64Array): void {
+    const az = stn.azimuthDeg, appEl = stn.apparentElevationDeg;
+    const lagCol = out.mountLagDeg, limCol = out.mountLimited;
+    if (gp.kind === 'fixed') {
+      for (let i = 0; i < n; i++) {
+        const off = azElSeparationDeg(gp.azimuthDeg, gp.elevationDeg, az[i], appEl[i]);
+        gOffA[i] = off; gGainA[i] = gndAnt.gainAtDBi(off); gLossA[i] = 0;
+        lagCol[i] = 0; limCol[i] = 0;
+      }
+      return;
+    }
+    const peak = gndAnt.peakGainDBi;
+    if (!rateLimited) {
+      gOffA.fill(0, 0, n); gGainA.fill(peak, 0, n); gLossA.fill(gndLossNoLag, 0, n);
+      lagCol.fill(0, 0, n); limCol.fill(0, 0, n);
+      return;
+    }
+    const t0 = sat.originS, k0 = sat.k0 + satFrom, dt = sat.stepS;
+    for (let i = 0; i < n; i++) {
+      stepMount(mount, t0 + (k0 + i) * dt, az[i], appEl[i], maxAzRate, maxElRate);
+      const lag = mount.lagDeg;
+      limCol[i] = mount.limited ? 1 : 0;
+      lagCol[i] = lag;
+      gOffA[i] = lag;
+      gGainA[i] = peak;
+      const total = lag + gndErrDeg;
+      gLossA[i] = lag === 0 ? gndLossNoLag : total > 0 ? Math.max(0, peak - gndAnt.gainAtDBi(total)) : 0;
+    }
+  }
+
+  /** EIRP, free-space loss, Doppler, the atmospheric elevation and the sum of the elevation-independent losses. */
+  function pathTerms(stn: StationColumns, n: number, out: LinkColumns, txGain: Float64Array, txLoss: Float64Array, rxLoss: Float64Array, fixedLoss: Float64Array): void {
+    const range = stn.rangeKm, rdot = stn.rangeRateKmS, rddot = stn.rangeAccelKmS2, appEl = stn.apparentElevationDeg;
+    const atmEl = out.atmosphericElevationDeg, eirpCol = out.eirpDBW, fslCol = out.freeSpaceLossDB;
+    const other = link.otherLossesDB;
+    const txConst = txPowerDBW - txLineLossDB;
+    freeSpaceLossColumnDB(range, f, n, fslCol);
+    // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
+    // shift is the same to first order whichever end transmits (downlink: as received on the
+    // ground; uplink: as the spacecraft sees it).
+    dopplerColumns(fHz, rdot, rddot, n, out.dopplerHz, out.dopplerRateHzS);
+    for (let i = 0; i < n; i++) {
+      eirpCol[i] = txConst + txGain[i];
+      const e = appEl[i];
+      atmEl[i] = e > 90 ? 90 : e > 0 ? e : 0;
+      fixedLoss[i] = fslCol[i] + polLoss + txLoss[i] + rxLoss[i] + other;
+    }
+  }
+
+  /** One weather case: C/N0, Es/N0, Eb/N0, margin, usable, mode and rate, from the columns filled before. */
+  function caseTerms(c: CaseColumns, n: number, eirpCol: Float64Array, fixedLoss: Float64Array, rxGainCol: Float64Array): void {
+    const rxPeak = rxAnt.peakGainDBi;
+    const atm = c.atmosphericDB, gt = c.gOverTDBK, cn0Col = c.cOverN0DBHz, esCol = c.esN0DB, ebCol = c.ebN0DB;
+    const reqCol = c.requiredEbN0DB, marginCol = c.marginDB, usableCol = c.usable, modeCol = c.mode, rateCol = c.informationRateBps;
+    for (let i = 0; i < n; i++) {
+      const g = gt[i] + (rxGainCol[i] - rxPeak);
+      gt[i] = g;
+      const cn0 = eirpCol[i] - fixedLoss[i] - atm[i] + g - k;
+      cn0Col[i] = cn0;
+      esCol[i] = cn0 - rsDB;
+    }
+    if (mc.kind === 'fixed') {
+      const req = mc.requiredEbN0DB;
+      for (let i = 0; i < n; i++) {
+        const ebn0 = cn0Col[i] - rbDB;
+        ebCol[i] = ebn0;
+        reqCol[i] = req;
+        const margin = ebn0 - req - impl;
+        marginCol[i] = margin;
+        const usable = margin >= reqMargin;
+        usableCol[i] = usable ? 1 : 0;
+        modeCol[i] = -1;
+        rateCol[i] = usable ? bitRate : 0;
+      }
+      return;
+    }
+    // Effective Es/N0 (after the implementation loss) into the margin column, then the mode chosen for it.
+    for (let i = 0; i < n; i++) marginCol[i] = esCol[i] - impl;
+    modeTable!.chooseColumn(marginCol, n, modeCol);
+    for (let i = 0; i < n; i++) {
+      const effective = marginCol[i];
+      const chosen = modeCol[i];
+      const mi = chosen >= 0 ? chosen : lowestIndex;
+      const req = modeReq[mi];
+      const effDB = modeEffDB[mi];
+      marginCol[i] = effective - req;
+      // Eb/N0 = Es/N0 − 10 log10(information bits per symbol) of the mode in use.
+      ebCol[i] = esCol[i] - effDB;
+      reqCol[i] = req - effDB;
+      usableCol[i] = chosen >= 0 ? 1 : 0;
+      rateCol[i] = chosen >= 0 ? modeRates[chosen] : 0;
+    }
+  }
+
+  function evaluateColumns(
+    sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full = true, scOffIn?: Float64Array,
+  ): LinkColumns {
     if (n > out.capacity) throw new Error(`link ${link.name}: ${n} steps do not fit columns of ${out.capacity}`);
     scratch(n);
     out.n = n;
     out.polarisationLossDB = polLoss;
     out.otherLossesDB = link.otherLossesDB;
-
-    // Spacecraft end.
-    spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, scOff);
-    for (let i = 0; i < n; i++) {
-      const g = scAnt.gainAtDBi(scOff[i]);
-      scGain[i] = g;
-      scLoss[i] = pointingLoss(scAnt, scOff[i], scErrDeg, g);
-    }
-
-    // Ground end: fixed boresight, or program track with optional rate-limited mount.
-    const az = stn.azimuthDeg, appEl = stn.apparentElevationDeg;
-    if (gp.kind === 'fixed') {
-      for (let i = 0; i < n; i++) {
-        const off = azElSeparationDeg(gp.azimuthDeg, gp.elevationDeg, az[i], appEl[i]);
-        gOff[i] = off; gGain[i] = gndAnt.gainAtDBi(off); gLoss[i] = 0;
-        out.mountLagDeg[i] = 0; out.mountLimited[i] = 0;
-      }
-    } else {
-      const peak = gndAnt.peakGainDBi;
-      for (let i = 0; i < n; i++) {
-        let lag = 0;
-        if (rateLimited) {
-          stepMount(mount, sat.originS + (sat.k0 + satFrom + i) * sat.stepS, az[i], appEl[i], maxAzRate, maxElRate);
-          lag = mount.lagDeg;
-          out.mountLimited[i] = mount.limited ? 1 : 0;
-        } else {
-          out.mountLimited[i] = 0;
-        }
-        out.mountLagDeg[i] = lag;
-        gOff[i] = lag;
-        gGain[i] = peak;
-        const total = lag + gndErrDeg;
-        gLoss[i] = lag === 0 ? gndLossNoLag : total > 0 ? Math.max(0, peak - gndAnt.gainAtDBi(total)) : 0;
-      }
-    }
-
-    const txOff = downlink ? scOff : gOff, rxOff = downlink ? gOff : scOff;
-    const txGain = downlink ? scGain : gGain, rxGain = downlink ? gGain : scGain;
-    const txLoss = downlink ? scLoss : gLoss, rxLoss = downlink ? gLoss : scLoss;
-    const range = stn.rangeKm, rdot = stn.rangeRateKmS, rddot = stn.rangeAccelKmS2;
-    const atmEl = out.atmosphericElevationDeg;
-    for (let i = 0; i < n; i++) {
-      out.txOffBoresightDeg[i] = txOff[i]; out.rxOffBoresightDeg[i] = rxOff[i];
-      out.txGainDBi[i] = txGain[i]; out.rxGainDBi[i] = rxGain[i];
-      out.txPointingLossDB[i] = txLoss[i]; out.rxPointingLossDB[i] = rxLoss[i];
-      out.eirpDBW[i] = txPowerDBW - txLineLossDB + txGain[i];
-      fslArgs.distanceKm = range[i];
-      const fsl = freeSpaceLossDB(fslArgs);
-      out.freeSpaceLossDB[i] = fsl;
-      // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
-      // shift is the same to first order whichever end transmits (downlink: as received on the
-      // ground; uplink: as the spacecraft sees it).
-      dopArgs.rangeRateKmS = rdot[i];
-      out.dopplerHz[i] = dopplerShiftHz(dopArgs);
-      rateArgs.rangeAccelKmS2 = rddot[i];
-      out.dopplerRateHzS[i] = dopplerRateHzS(rateArgs);
-      const e = appEl[i];
-      atmEl[i] = e > 90 ? 90 : e > 0 ? e : 0;
-      fixedLoss[i] = fsl + polLoss + txLoss[i] + rxLoss[i] + link.otherLossesDB;
-    }
-    tableIntervals(table, atmEl, n, lo, hiOff, frac);
-
+    // Spacecraft end (the off-boresight angle may come shared from another link with the same pointing).
+    const sOff = scOffIn ?? sc.off;
+    if (!scOffIn) spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, sc.off);
+    spacecraftGains(sOff, n, sc.gain, sc.loss);
+    groundTerms(sat, satFrom, stn, n, out, sc.gOff, sc.gGain, sc.gLoss);
+    const txOff = downlink ? sOff : sc.gOff, rxOff = downlink ? sc.gOff : sOff;
+    const txGain = downlink ? sc.gain : sc.gGain, rxGain = downlink ? sc.gGain : sc.gain;
+    const txLoss = downlink ? sc.loss : sc.gLoss, rxLoss = downlink ? sc.gLoss : sc.loss;
+    out.txOffBoresightDeg.set(txOff.subarray(0, n)); out.rxOffBoresightDeg.set(rxOff.subarray(0, n));
+    out.txGainDBi.set(txGain.subarray(0, n)); out.rxGainDBi.set(rxGain.subarray(0, n));
+    out.txPointingLossDB.set(txLoss.subarray(0, n)); out.rxPointingLossDB.set(rxLoss.subarray(0, n));
+    pathTerms(stn, n, out, txGain, txLoss, rxLoss, sc.fixedLoss);
+    const { lo, hiOff, frac } = sc;
+    tableIntervals(table, out.atmosphericElevationDeg, n, lo, hiOff, frac);
     for (let ci = 0; ci < out.cases.length; ci++) {
       const c = out.cases[ci];
       const o = ci * TERM_COUNT;
-      // G/T at boresight from the table, plus the received gain relative to boresight.
-      tableTermColumn(table, o + TERM.total, n, lo, hiOff, frac, c.atmosphericDB);
-      tableTermColumn(table, o + TERM.gOverTBoresightDBK, n, lo, hiOff, frac, c.gOverTDBK);
+      // G/T at boresight from the table (plus the received gain relative to boresight, in caseTerms).
+      tableTermPairColumn(table, o + TERM.total, o + TERM.gOverTBoresightDBK, n, lo, hiOff, frac, c.atmosphericDB, c.gOverTDBK);
       if (full) {
-        tableTermColumn(table, o + TERM.gas, n, lo, hiOff, frac, c.gasDB);
-        tableTermColumn(table, o + TERM.rain, n, lo, hiOff, frac, c.rainDB);
-        tableTermColumn(table, o + TERM.cloud, n, lo, hiOff, frac, c.cloudDB);
-        tableTermColumn(table, o + TERM.scintillation, n, lo, hiOff, frac, c.scintillationDB);
-        tableTermColumn(table, o + TERM.antennaTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK);
-        tableTermColumn(table, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.systemTemperatureK);
+        tableTermPairColumn(table, o + TERM.gas, o + TERM.rain, n, lo, hiOff, frac, c.gasDB, c.rainDB);
+        tableTermPairColumn(table, o + TERM.cloud, o + TERM.scintillation, n, lo, hiOff, frac, c.cloudDB, c.scintillationDB);
+        tableTermPairColumn(table, o + TERM.antennaTemperatureK, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK, c.systemTemperatureK);
       }
-      const atm = c.atmosphericDB, gt = c.gOverTDBK;
-      for (let i = 0; i < n; i++) {
-        const g = gt[i] + (out.rxGainDBi[i] - rxAnt.peakGainDBi);
-        gt[i] = g;
-        const cn0 = out.eirpDBW[i] - fixedLoss[i] - atm[i] + g - k;
-        c.cOverN0DBHz[i] = cn0;
-        const esn0 = cn0 - rsDB;
-        c.esN0DB[i] = esn0;
-        if (mc.kind === 'fixed') {
-          const ebn0 = cn0 - rbDB;
-          c.ebN0DB[i] = ebn0;
-          c.requiredEbN0DB[i] = mc.requiredEbN0DB;
-          const margin = ebn0 - mc.requiredEbN0DB - impl;
-          c.marginDB[i] = margin;
-          const usable = margin >= reqMargin;
-          c.usable[i] = usable ? 1 : 0;
-          c.mode[i] = -1;
-          c.informationRateBps[i] = usable ? bitRate : 0;
-        } else {
-          const effective = esn0 - impl;
-          const chosen = modeTable!.choose(effective);
-          const mi = chosen >= 0 ? chosen : lowestIndex;
-          const m = modes[mi];
-          const effDB = modeEffDB[mi];
-          c.marginDB[i] = effective - m.requiredEsN0DB;
-          // Eb/N0 = Es/N0 − 10 log10(information bits per symbol) of the mode in use.
-          c.ebN0DB[i] = esn0 - effDB;
-          c.requiredEbN0DB[i] = m.requiredEsN0DB - effDB;
-          c.usable[i] = chosen >= 0 ? 1 : 0;
-          c.mode[i] = chosen;
-          c.informationRateBps[i] = chosen >= 0 ? modeRates[chosen] : 0;
-        }
-      }
+      caseTerms(c, n, out.eirpDBW, sc.fixedLoss, out.rxGainDBi);
     }
     return out;
   }
@@ -419,6 +443,8 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     evaluate,
     evaluateColumns,
     modeNames,
+    spacecraftPointingKey: `${scPointing.kind}|${scPointing.kind === 'tracking' ? '' : scBoresight.join(',')}`,
+    spacecraftOffBoresight(sat, satFrom, stn, n, out) { spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, out); },
     symbolRateBaud: symbolRate,
     bitRateBps: bitRate,
     explain(sample, out) {

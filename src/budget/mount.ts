@@ -126,10 +126,20 @@ export function stepMount(
   }
   const azLimit = maxAzRateDegS > 0 && Number.isFinite(maxAzRateDegS) ? maxAzRateDegS : Infinity;
   const elLimit = maxElRateDegS > 0 && Number.isFinite(maxElRateDegS) ? maxElRateDegS : Infinity;
+  const dAzTarget = azimuthDeltaDeg(s.targetAzDeg, azDeg);
+  if (dt > 0 && s.azDeg === s.targetAzDeg && s.elDeg === s.targetElDeg
+    && Math.abs(dAzTarget) <= azLimit * dt && Math.abs(elDeg - s.targetElDeg) <= elLimit * dt) {
+    // On target, and the target within both rates: the mount follows it exactly (followAxis with d0 = 0 and |v| ≤ limit).
+    s.azDeg = wrap360(azDeg); s.elDeg = elDeg;
+    s.timeS = timeS;
+    s.targetAzDeg = s.azDeg; s.targetElDeg = elDeg;
+    s.lagDeg = 0; s.limited = false;
+    return s;
+  }
   let limited = false;
   let dAz = 0, dEl = 0;
   if (dt > 0) {
-    followAxis(azimuthDeltaDeg(s.azDeg, s.targetAzDeg), azimuthDeltaDeg(s.targetAzDeg, azDeg) / dt, azLimit, dt, true, axis);
+    followAxis(azimuthDeltaDeg(s.azDeg, s.targetAzDeg), dAzTarget / dt, azLimit, dt, true, axis);
     dAz = axis[0]; limited = axis[1] === 1;
     followAxis(s.targetElDeg - s.elDeg, (elDeg - s.targetElDeg) / dt, elLimit, dt, false, axis);
     dEl = axis[0]; limited = limited || axis[1] === 1;

@@ -128,7 +128,7 @@ export function stationLook(frame: StationFrame, s: SatelliteColumns, from: numb
     const e = -sl * dx + cl * dy;
     const n = -sp * cl * dx - sp * sl * dy + cp * dz;
     const u = cp * cl * dx + cp * sl * dy + sp * dz;
-    const el = Math.atan2(u, Math.hypot(e, n)) / DEG;
+    const el = Math.atan2(u, Math.sqrt(e * e + n * n)) / DEG;
     let az = Math.atan2(e, n) / DEG;
     if (az < 0) az += 360;
     const rdot = (dx * s.evx[i] + dy * s.evy[i] + dz * s.evz[i]) / rho;

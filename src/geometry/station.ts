@@ -92,7 +92,7 @@ export function createStationGeometry(input: Station): StationGeometry {
   function elevationMinusMask(orbit: StateSource, t: number): number {
     topocentric(orbit, t);
     const e = enu[0]; const n = enu[1];
-    let el = Math.atan2(enu[2], Math.hypot(e, n)) / DEG;
+    let el = Math.atan2(enu[2], Math.sqrt(e * e + n * n)) / DEG;
     if (onApparent) el = apparentElevationDeg(hKm, el);
     if (isConstant) return el - constantMask;
     const az = Math.atan2(e, n) / DEG;
@@ -102,7 +102,7 @@ export function createStationGeometry(input: Station): StationGeometry {
   function look(orbit: StateSource, t: number, out: LookAngles): LookAngles {
     topocentric(orbit, t);
     const e = enu[0]; const n = enu[1]; const u = enu[2];
-    out.elevationDeg = Math.atan2(u, Math.hypot(e, n)) / DEG;
+    out.elevationDeg = Math.atan2(u, Math.sqrt(e * e + n * n)) / DEG;
     const az = Math.atan2(e, n) / DEG;
     out.azimuthDeg = az < 0 ? az + 360 : az;
     const rho = Math.sqrt(e * e + n * n + u * u);

@@ -31,7 +31,7 @@ export const PASS_COLUMNS = [
 
 const iso = (t: number | null) => (t === null ? '' : formatIsoUtc(t));
 
-export function passRows(passes: readonly PassLinkSummary[]): CsvCell[][] {
+export function passRows(passes: Iterable<PassLinkSummary>): CsvCell[][] {
   const rows: CsvCell[][] = [];
   for (const p of passes) {
     for (const c of p.cases) {
@@ -53,8 +53,8 @@ export function passRows(passes: readonly PassLinkSummary[]): CsvCell[][] {
 const round = (x: number, d: number) => (Number.isFinite(x) ? Number(x.toFixed(d)) : null);
 
 /** passes.json: the pass summaries with ISO times and both volume units. */
-export function passJson(passes: readonly PassLinkSummary[]): unknown[] {
-  return passes.map((p) => ({
+export function passJson(passes: Iterable<PassLinkSummary>): unknown[] {
+  return Array.from(passes, (p) => ({
     pass_id: p.passId, satellite: p.satellite, station: p.station, link: p.link, direction: p.direction,
     aos_utc: iso(p.aosS), tca_utc: iso(p.tcaS), los_utc: iso(p.losS),
     max_elevation_deg: round(p.maxElevationDeg, 3), duration_s: round(p.durationS, 3),

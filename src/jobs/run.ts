@@ -10,7 +10,7 @@ import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
 import { findMask, maskTrade } from '../analysis/maskHistogram.js';
 import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope } from '../sweep/types.js';
 import { bitsToMegabytes } from '../analysis/units.js';
-import type { MaskFinding, MaskTradePoint, RunSummary } from '../analysis/types.js';
+import type { MaskFinding, MaskTradePoint, PassLinkSummary, RunSummary } from '../analysis/types.js';
 import { epochWarning } from '../elements/index.js';
 import { AtomicOutputDir } from '../output/atomic.js';
 import { csvText } from '../output/csv.js';
@@ -104,9 +104,10 @@ export function linkEnvelopes(envelopes: readonly StationLinkEnvelope[]): LinkEn
 export function reportInput(
   scenario: ResolvedScenario, summary: RunSummary, p: PipelineResult,
   extra: Pick<ReportInput, 'maskTrade' | 'maskFindings' | 'rateTrade'> = {},
+  passLinks: PassLinkSummary[] = p.passLinks.toArray(),
 ): ReportInput {
   return {
-    summary, passes: p.passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra,
+    summary, passes: passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra,
     ...(p.envelopes.length > 0 ? { envelopes: linkEnvelopes(p.envelopes) } : {}),
   };
 }
@@ -130,14 +131,16 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     progress.done();
 
     const { trade, findings } = maskResults(scenario, pipeline);
-    out.writeFile('passes.csv', await csvText(PASS_COLUMNS, passRows(pipeline.passLinks)));
-    out.writeFile('passes.json', `${JSON.stringify(passJson(pipeline.passLinks), null, 2)}\n`);
+    // The pass records, built once from the compact table for the outputs that list them.
+    const passLinks = pipeline.passLinks.toArray();
+    out.writeFile('passes.csv', await csvText(PASS_COLUMNS, passRows(passLinks)));
+    out.writeFile('passes.json', `${JSON.stringify(passJson(passLinks), null, 2)}\n`);
     out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily)));
     // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
-    out.writeFile('passes.ics', renderCalendar(pipeline.passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
+    out.writeFile('passes.ics', renderCalendar(passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
     const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
     const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
-    out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings })));
+    out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
     out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
     const files = out.commit();
     return { outDir, files, summary, pipeline, maskTrade: trade, maskFindings: findings };

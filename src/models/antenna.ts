@@ -65,10 +65,26 @@ export const COSINE_POWER_FLOOR_BELOW_PEAK_DB = 30;
  */
 export function cosinePowerGainDBi(a: { peakGainDBi: number; exponent: number; offBoresightDeg: number; floorGainDBi?: number }): number {
   const floor = a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB;
-  const th = Math.abs(a.offBoresightDeg);
+  return cosinePowerDB(a.peakGainDBi, (10 * a.exponent) / Math.LN10, floor, a.offBoresightDeg);
+}
+
+/** The cosine-power gain with its constants worked out: peak + c ln(cos θ), c = 10 n / ln 10, floored. */
+function cosinePowerDB(peak: number, c: number, floor: number, offDeg: number): number {
+  const th = offDeg < 0 ? -offDeg : offDeg;
   if (th >= 90) return floor;
-  const g = a.peakGainDBi + 10 * a.exponent * Math.log10(Math.cos(th * DEG));
+  // 10 n log10(cos θ) through Math.log (several times cheaper than Math.log10 in V8; equal to ~1 ulp).
+  const g = peak + c * Math.log(Math.cos(th * DEG));
   return g > floor ? g : floor;
+}
+
+/** cosinePowerGainDBi at off[i] + addDeg for i < n, into out (the same formula, looped). */
+export function cosinePowerGainColumnDBi(
+  a: { peakGainDBi: number; exponent: number; floorGainDBi?: number }, off: Float64Array, addDeg: number, n: number, out: Float64Array,
+): void {
+  const floor = a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB;
+  const c = (10 * a.exponent) / Math.LN10;
+  const peak = a.peakGainDBi;
+  for (let i = 0; i < n; i++) out[i] = cosinePowerDB(peak, c, floor, off[i] + addDeg);
 }
 
 export interface GainTable { offBoresightDeg: number[]; gainDBi: number[] }

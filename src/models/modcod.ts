@@ -88,6 +88,8 @@ export interface AdaptiveModeTable {
   /** Mode index chosen for Es/N0 in [thresholdsDB[j], thresholdsDB[j+1]). */
   modeFrom: Int32Array;
   choose(esN0DB: number): number;
+  /** `choose` of x[0 … n−1] into out (hunting from the previous entry's breakpoint: Es/N0 moves slowly along a pass). */
+  chooseColumn(x: Float64Array, n: number, out: Int16Array): void;
 }
 
 export function adaptiveModeTable(modes: readonly AdaptiveMode[], requiredMarginDB: number): AdaptiveModeTable {
@@ -108,6 +110,15 @@ export function adaptiveModeTable(modes: readonly AdaptiveMode[], requiredMargin
         if (thresholdsDB[mid] <= x) lo = mid; else hi = mid;
       }
       return modeFrom[lo];
+    },
+    chooseColumn(x, count, out) {
+      let j = 0;
+      for (let i = 0; i < count; i++) {
+        const v = x[i];
+        while (j > 0 && !(thresholdsDB[j] <= v)) j--;
+        while (j + 1 < n && thresholdsDB[j + 1] <= v) j++;
+        out[i] = n > 0 && thresholdsDB[j] <= v ? modeFrom[j] : -1;
+      }
     },
   };
 }

@@ -50,7 +50,7 @@ const CRLF = '\r\n';
 const MAX_LINE_OCTETS = 75;
 
 /** The usable windows of the chosen weather case (default: the first case of each pass). */
-export function usableWindowEvents(passes: PassLinkSummary[], weather?: string): UsableWindowEvent[] {
+export function usableWindowEvents(passes: Iterable<PassLinkSummary>, weather?: string): UsableWindowEvent[] {
   const events: UsableWindowEvent[] = [];
   for (const p of passes) {
     const c = weather === undefined ? p.cases[0] : p.cases.find((k) => k.weather === weather);

@@ -33,6 +33,7 @@ import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator, type Da
 import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
 import { networkEligible, networkOutranks, stationRank } from '../analysis/network.js';
 import { createPassAccumulator, type PassAccumulator } from '../analysis/passAccumulator.js';
+import { PassLinkTable } from '../analysis/passTable.js';
 import { createRateHistogram, type RateHistogram } from '../analysis/rateHistogram.js';
 import { judgePass } from '../analysis/verdict.js';
 import type { SatelliteLayout } from './layout.js';
@@ -78,11 +79,14 @@ interface StationRun {
   links: LinkRun[];
   /** Per SatelliteLayout.linkNames index: index into `links`, or −1. */
   byName: number[];
+  /** Per link: the first link of the station with the same spacecraft pointing (its off-boresight angles are shared). */
+  pointingOf: number[];
   /** Free column buffers of this station (station columns and one LinkColumns per link). */
   free: Slot[];
 }
 
-interface Slot { stn: StationColumns; cols: LinkColumns[]; bins: Int32Array }
+/** Column buffers of one pass in one window: station columns, one LinkColumns per link, mask bins, shared spacecraft off-boresight angles. */
+interface Slot { stn: StationColumns; cols: LinkColumns[]; bins: Int32Array; scOff: Float64Array[] }
 
 /** A pass being swept. */
 interface ItemRun {
@@ -134,6 +138,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     return {
       name: st.entry.station.name, geometry: createStationGeometry(st.entry.station), rank0, rank1, links,
       byName: layout.linkNames.map((n) => links.findIndex((l) => l.link.name === n)), free: [],
+      pointingOf: links.map((l) => links.findIndex((m) => m.engine.spacecraftPointingKey === l.engine.spacecraftPointingKey)),
     };
   });
   const nLinks = layout.linkNames.length;
@@ -142,6 +147,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   satCols.originS = startS; satCols.stepS = stepS;
   const acquire = (st: StationRun): Slot => st.free.pop() ?? {
     stn: createStationColumns(WINDOW_STEPS), cols: st.links.map(() => createLinkColumns(WINDOW_STEPS, nCases)), bins: new Int32Array(WINDOW_STEPS),
+    scOff: st.links.map(() => new Float64Array(WINDOW_STEPS)),
   };
   const policy = scenario.network;
   const netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
@@ -151,9 +157,10 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   async function sweepChunk(items: readonly PlannedPass[], chunk: number, o: SweepOptions): Promise<ChunkPartial> {
     const seriesMax = o.seriesMaxPoints ?? 120;
     const sgp4Before = satOrbit.sgp4Calls;
+    const passTable = new PassLinkTable(cases.map((c) => c.name));
     const full = o.onWindow !== undefined || o.onStep !== undefined;
     const part: ChunkPartial = {
-      satIndex: layout.satIndex, chunk, passes: [], passLinks: [], series: [], daily: [], mask: [], rate: [], envelope: [],
+      satIndex: layout.satIndex, chunk, passes: [], passLinks: { weather: [], strings: [], n: 0, text: new Int32Array(0), times: new Float64Array(0), ints: new Int32Array(0), caseNums: new Float64Array(0), caseInts: new Int32Array(0) }, series: [], daily: [], mask: [], rate: [], envelope: [],
       stationSteps: 0, gridTimes: 0, linkSteps: 0, sgp4Calls: 0,
     };
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
@@ -189,7 +196,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     const end = (run: ItemRun) => {
       run.st.links.forEach((lr, l) => {
         const summary = run.acc[l].finish();
-        part.passLinks.push(summary);
+        passTable.push(summary);
         summary.cases.forEach((c, ci) => lr.daily[ci].endPass(run.pass.aosS, c.verdict));
         const s = run.series[l];
         if (s) part.series.push(s);
@@ -217,11 +224,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       for (let ci = 0; ci < nCases; ci++) {
         const c = cols.cases[ci];
         lr.daily[ci].addColumns(startS, k0, stepS, 0, n, c.usable, c.informationRateBps, c.esN0DB);
-        const mh = lr.mask[ci];
-        for (let i = 0; i < n; i++) {
-          const b = slot.bins[i];
-          if (b >= 0) mh.addToBin(b, stepS, c.usable[i] === 1, c.informationRateBps[i], limited[i] === 1);
-        }
+        lr.mask[ci].addBins(slot.bins, c.usable, c.informationRateBps, limited, n, stepS);
         lr.rate[ci]?.addColumn(c.cOverN0DBHz, 0, n, stepS);
         if (lr.envelope.length > 0) {
           const env = lr.envelope[ci];
@@ -260,24 +263,17 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         for (let ci = 0; ci < nCases; ci++) {
           const nc = netContact[li][ci];
           const daily = netDaily[li][ci];
-          const take = (x: Active, l: number, i: number, t: number) => {
-            const c = x.slot.cols[l].cases[ci];
-            netCase.information_rate_bps = c.informationRateBps[i];
-            netCase.es_over_n0_db = c.esN0DB[i];
-            daily.add(t, stepS, netCase, x.run.st.links[l].link);
-            nc.usableS += stepS;
-            nc.any = true;
-          };
           if (cands.length === 1) {
-            // One station in view: it carries the link wherever it is eligible.
+            // One station in view: it carries the link at every usable step (a usable step always has a
+            // margin to compare, so usable is eligible under either policy).
             const x = cands[0], l = cl[0];
             const c = x.slot.cols[l].cases[ci];
-            for (let i = 0; i < x.n; i++) {
-              const t = startS + (x.k0 + i) * stepS;
-              if (Number.isNaN(nc.startS)) nc.startS = t;
-              nc.aboveS += stepS;
-              if (networkEligible(policy, c.usable[i] === 1, c.marginDB[i])) take(x, l, i, t);
-            }
+            if (Number.isNaN(nc.startS)) nc.startS = startS + x.k0 * stepS;
+            let used = 0;
+            for (let i = 0; i < x.n; i++) { nc.aboveS += stepS; if (c.usable[i] === 1) used++; }
+            daily.addColumns(startS, x.k0, stepS, 0, x.n, c.usable, c.informationRateBps, c.esN0DB, x.run.st.links[l].link, true);
+            for (let q = 0; q < used; q++) nc.usableS += stepS;
+            if (used > 0) nc.any = true;
             continue;
           }
           for (let k = w0; k < w1; k++) {
@@ -303,7 +299,15 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             const t = startS + k * stepS;
             if (Number.isNaN(nc.startS)) nc.startS = t;
             nc.aboveS += stepS;
-            if (best >= 0) take(cands[best], cl[best], bi, t);
+            if (best >= 0) {
+              const x = cands[best], l = cl[best];
+              const c = x.slot.cols[l].cases[ci];
+              netCase.information_rate_bps = c.informationRateBps[bi];
+              netCase.es_over_n0_db = c.esN0DB[bi];
+              daily.add(t, stepS, netCase, x.run.st.links[l].link);
+              nc.usableS += stepS;
+              nc.any = true;
+            }
           }
         }
       }
@@ -366,7 +370,10 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           for (let q = 0; q < m; q++) slot.bins[q] = mh.binOf(slot.stn.elevationDeg[q]);
           part.stationSteps += m;
           for (let l = 0; l < run.st.links.length; l++) {
-            run.st.links[l].engine.evaluateColumns(satCols, a - w0, slot.stn, m, slot.cols[l], full);
+            const p = run.st.pointingOf[l];
+            const engine = run.st.links[l].engine;
+            if (p === l) engine.spacecraftOffBoresight(satCols, a - w0, slot.stn, m, slot.scOff[l]);
+            engine.evaluateColumns(satCols, a - w0, slot.stn, m, slot.cols[l], full, slot.scOff[p]);
             part.linkSteps += m;
             accumulate(run, l, slot, a, m);
           }
@@ -398,6 +405,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     }
     for (const accs of netDaily) for (const a of accs) part.daily.push(a.takeState());
     part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
+    part.passLinks = passTable.exportState();
     return part;
   }
 

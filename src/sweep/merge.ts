@@ -6,7 +6,7 @@ import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from '
 import { createMaskHistogram } from '../analysis/maskHistogram.js';
 import { createRateHistogram } from '../analysis/rateHistogram.js';
 import type { DailyRow } from '../analysis/types.js';
-import { internVerdictSentence } from '../analysis/verdict.js';
+import { PassLinkTable } from '../analysis/passTable.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { SatelliteLayout } from './layout.js';
 import { ENVELOPE_BINS, type ChunkPartial, type PipelineResult, type StationLinkEnvelope, type StationLinkHistograms } from './types.js';
@@ -62,13 +62,7 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
       if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
       next++;
       for (const p of part.passes) result.passes.push(p);
-      for (const p of part.passLinks) {
-        // Summaries from a worker arrive as structured clones, each with its own copy of the
-        // rule sentence; point them back at the one shared copy (a year of passes otherwise
-        // holds tens of MB of identical strings).
-        for (const c of p.cases) c.verdictRule = internVerdictSentence(c.verdictRule);
-        result.passLinks.push(p);
-      }
+      result.passLinks.append(part.passLinks);
       for (const s of part.series) result.series.push(s);
       part.daily.forEach((d, i) => daily[i].mergeState(d));
       part.mask.forEach((m, i) => hists[i].mask.mergeState(m));
@@ -94,9 +88,9 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
   };
 }
 
-export function emptyPipelineResult(): PipelineResult {
+export function emptyPipelineResult(scenario: ResolvedScenario): PipelineResult {
   return {
-    passes: [], passLinks: [], daily: [], histograms: [], series: [], envelopes: [], stationSteps: 0, gridTimes: 0, linkSteps: 0,
+    passes: [], passLinks: new PassLinkTable(scenario.weatherCases.map((w) => w.name)), daily: [], histograms: [], series: [], envelopes: [], stationSteps: 0, gridTimes: 0, linkSteps: 0,
     sgp4Calls: 0, engines: [],
   };
 }
@@ -108,7 +102,7 @@ export function finishPipelineResult(result: PipelineResult, networkDaily: Daily
     a.dayUtc.localeCompare(b.dayUtc) || a.satellite.localeCompare(b.satellite) || a.link.localeCompare(b.link)
     || a.weather.localeCompare(b.weather) || (a.station === NETWORK_STATION ? 1 : 0) - (b.station === NETWORK_STATION ? 1 : 0)
     || a.station.localeCompare(b.station));
-  result.passLinks.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station) || a.link.localeCompare(b.link));
+  result.passLinks.sort();
   result.passes.sort((a, b) => a.aosS - b.aosS || a.satellite.localeCompare(b.satellite) || a.station.localeCompare(b.station));
   return result;
 }

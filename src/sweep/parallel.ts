@@ -87,7 +87,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   const pool: Worker[] = [];
   try {
     for (let w = 0; w < workers; w++) pool.push(new Worker(script, { workerData: init }));
-    const result = emptyPipelineResult();
+    const result = emptyPipelineResult(scenario);
     const layouts: SatelliteLayout[] = scenarioLayouts(scenario, o.maskFloorDeg);
     const nSlabs = slabCount(scenario);
     const slabTasks = layouts.flatMap((layout, li) => Array.from({ length: nSlabs }, (_, slab) => ({ li, satIndex: layout.satIndex, slab })));

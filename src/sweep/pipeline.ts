@@ -15,7 +15,7 @@ import type { OrbitSource } from '../orbit/interpolated.js';
 
 export async function runPipeline(options: PipelineOptions): Promise<PipelineResult> {
   const { scenario } = options;
-  const result = emptyPipelineResult();
+  const result = emptyPipelineResult(scenario);
   const networkDaily: DailyRow[] = [];
   // Plan every satellite first (cheap), so the report's series can be chosen over the whole run.
   const plans: { layout: SatelliteLayout; plan: SatellitePlan; orbit: OrbitSource }[] = [];

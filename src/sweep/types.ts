@@ -7,7 +7,8 @@ import type { LinkSpec, StepBudget } from '../budget/types.js';
 import type { DailyAccumulatorState } from '../analysis/dailyAccumulator.js';
 import type { MaskHistogram, MaskHistogramState } from '../analysis/maskHistogram.js';
 import type { RateHistogram, RateHistogramState } from '../analysis/rateHistogram.js';
-import type { DailyRow, PassLinkSummary, PassSeries } from '../analysis/types.js';
+import type { PassLinkTable, PassTableState } from '../analysis/passTable.js';
+import type { DailyRow, PassSeries } from '../analysis/types.js';
 import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { StepWindow } from './window.js';
@@ -73,7 +74,8 @@ export interface StationLinkEnvelope {
 
 export interface PipelineResult {
   passes: Pass[];
-  passLinks: PassLinkSummary[];
+  /** Per pass, link and weather case, compactly (records built on demand). */
+  passLinks: PassLinkTable;
   daily: DailyRow[];
   histograms: StationLinkHistograms[];
   series: PassSeriesData[];
@@ -96,7 +98,7 @@ export interface ChunkPartial {
   chunk: number;
   /** The chunk's passes, completed (TCA, peak, azimuths), in plan order. */
   passes: Pass[];
-  passLinks: PassLinkSummary[];
+  passLinks: PassTableState;
   series: PassSeriesData[];
   /** Per layout station, link and case; then per link name and case for the network. */
   daily: DailyAccumulatorState[];

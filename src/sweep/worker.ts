@@ -47,6 +47,8 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   for (const m of p.mask) { add(m.timeS); add(m.usableS); add(m.volumeBits); add(m.keyholeS); }
   for (const r of p.rate) if (r) add(r.timeS);
   for (const e of p.envelope) add(e);
+  const t = p.passLinks;
+  for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts]) out.add(a.buffer as ArrayBuffer);
   return [...out];
 }
 

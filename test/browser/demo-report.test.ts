@@ -66,7 +66,7 @@ describe.skipIf(!present)('report of a real run in headless Chromium', () => {
     expect(run.pipeline.passLinks.length).toBeGreaterThan(10);
     expect(await page.locator('details.pass').count()).toBe(run.pipeline.passLinks.length);
     // margin, Eb/N0 and sky plot in every section that has steps
-    const withSteps = run.pipeline.passLinks.filter((p) => p.steps > 0).length;
+    const withSteps = [...run.pipeline.passLinks].filter((p) => p.steps > 0).length;
     expect(await page.locator('details.pass svg.sky').count()).toBe(withSteps);
     expect(await page.locator('svg').count()).toBeGreaterThan(3 * withSteps);
   });
