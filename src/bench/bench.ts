@@ -1,50 +1,55 @@
 /**
- * `npm run bench`: wall time, throughput, floor ratio and peak memory of the
- * run at several scales. Each case runs in its own child process (so its
- * peak resident set, `process.resourceUsage().maxRSS`, is its own); the
- * table is printed and written to out/bench.json. A script, not a test:
- * numbers on a shared machine drift, so the ratios that matter (floor ratio,
- * per-day flatness, parallel speedup) are measured side by side.
+ * `npm run bench`: wall time, throughput, floor ratio, where the time goes
+ * and peak memory of the run at several scales. Each case runs in its own
+ * child process (so its peak resident set, `process.resourceUsage().maxRSS`,
+ * is its own, read before the floor is measured); the table is printed and
+ * written to out/bench.json. A script, not a test: numbers on a shared
+ * machine drift, so the ratios that matter (floor ratio, per-day flatness,
+ * parallel speedup) are measured side by side.
  *
  * Cases:
  *   W1        the demo satellite × 3 stations × 30 days, 1-s steps, all weather
  *             cases and links, every output written (steps.csv included) to a
- *             temporary folder; floor = bare satellite.js loop over the same
- *             instants (see floor.ts), timed in the same process.
- *   window-N  the same for N = 7, 28, 112 days, steps.csv off (per-day cost).
- *   st10-wK   10 stations × 365 days, K = 1, 2 worker threads, steps.csv and
- *             report off (pipeline and the small tables only).
+ *             temporary folder.
+ *   W1-core   the same with no output file: the sweep and the summaries
+ *             (daily statistics, mask findings) only.
+ *   window-N  the run for N = 7, 28, 112 days, steps.csv off (per-day cost).
+ *   st10-wK   10 stations × 365 days, K = 1, 2 worker threads, pipeline only.
+ * Floor (W1, W1-core, st10): a bare satellite.js loop over the instants a
+ * direct run would evaluate the orbit at (the exact-orbit pass finder's
+ * instants and every in-pass grid instant, per station; see floor.ts), timed
+ * in the same child process after the run; ratio = wall / floor.
  *
  * Per-day cost is shown twice so flatness is judged fairly: s/day counts the
  * whole run including the fixed start-up (module load, measured as the time
  * from process start to the bench's first line, plus the elevation tables,
  * measured by building the scenario's engines once in the child before the
  * run, cold); s/day excl. start-up is (run wall − tables) / days. wall_s is
- * the run alone (from the call to its return), as before; the outputs'
- * fingerprint is taken after the clock stops, by hashing piece by piece (no
- * whole-result string, which would inflate the peak RSS measured).
+ * the run alone (from the call to its return); the outputs' fingerprint is
+ * taken after the clock stops, by hashing piece by piece.
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { runScenario } from '../jobs/run.js';
+import { maskResults, runScenario } from '../jobs/run.js';
+import { runSummary } from '../jobs/outputs.js';
 import { createSweeper } from '../sweep/chunk.js';
 import { satelliteLayout } from '../sweep/layout.js';
 import { runPipelineParallel } from '../sweep/parallel.js';
-import type { PipelineResult } from '../sweep/types.js';
+import { createSweepTimings, type PipelineResult, type SweepTimings } from '../sweep/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { benchScenario } from './scenarios.js';
-import { floorInstants, floorLoop } from './floor.js';
+import { floorOf, type Floor } from './floor.js';
 
 interface BenchCase {
   id: string;
   days: number;
   stations: 3 | 10;
   workers: number;
-  /** 'run': runScenario with every output; 'pipeline': the pipeline only. */
-  mode: 'run' | 'pipeline';
+  /** 'run': runScenario with every output; 'core': sweep and summaries, no file; 'pipeline': the sweep only. */
+  mode: 'run' | 'core' | 'pipeline';
   steps: boolean;
   withFloor: boolean;
 }
@@ -54,30 +59,32 @@ interface CaseResult extends BenchCase {
   /** Module load (process start to the bench's first line) and building every engine's elevation table once (cold). */
   moduleLoadS: number;
   tablesS: number;
-  /** (moduleLoadS + wallS) / days and (wallS − tablesS) / days. */
   secondsPerDayWithStartup: number;
   secondsPerDayExclStartup: number;
   linkSteps: number;
   stationSteps: number;
   gridTimes: number;
   passes: number;
+  sgp4Calls: number;
   linkStepsPerS: number;
-  secondsPerDay: number;
+  usPerLinkStep: number;
   maxRssMB: number;
   stepsCsvMB: number | null;
   reportMB: number | null;
-  floor?: { seconds: number; scanInstants: number; gridInstants: number; ratio: number; instantsPerS: number };
-  /** SHA-1-free fingerprint of the outputs (size and a sum), to compare serial and parallel. */
+  floor?: Floor & { ratio: number };
+  /** Where the time went (one worker only). */
+  timings?: SweepTimings;
   fingerprint: string;
 }
 
 const CASES: BenchCase[] = [
   { id: 'W1', days: 30, stations: 3, workers: 1, mode: 'run', steps: true, withFloor: true },
+  { id: 'W1-core', days: 30, stations: 3, workers: 1, mode: 'core', steps: false, withFloor: true },
   { id: 'window-7', days: 7, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
   { id: 'window-28', days: 28, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
   { id: 'window-112', days: 112, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
-  { id: 'st10-w1', days: 365, stations: 10, workers: 1, mode: 'pipeline', steps: false, withFloor: false },
-  { id: 'st10-w2', days: 365, stations: 10, workers: 2, mode: 'pipeline', steps: false, withFloor: false },
+  { id: 'st10-w1', days: 365, stations: 10, workers: 1, mode: 'pipeline', steps: false, withFloor: true },
+  { id: 'st10-w2', days: 365, stations: 10, workers: 2, mode: 'pipeline', steps: false, withFloor: true },
 ];
 
 /** FNV-1a over text pieces, fed one at a time. */
@@ -118,17 +125,23 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
   const scenario = benchScenario({ days: c.days, stations: c.stations });
   const tablesS = tablesSeconds(scenario);
   const tmp = mkdtempSync(path.join(tmpdir(), `passbudget-bench-${c.id}-`));
+  const timings = c.workers <= 1 ? createSweepTimings() : undefined;
   try {
     const t0 = process.hrtime.bigint();
     let p: PipelineResult;
     let stepsCsvMB: number | null = null;
     let reportMB: number | null = null;
     if (c.mode === 'run') {
-      p = (await runScenario(scenario, { outDir: path.join(tmp, 'out'), quiet: true, steps: c.steps, workers: c.workers })).pipeline;
+      p = (await runScenario(scenario, { outDir: path.join(tmp, 'out'), quiet: true, steps: c.steps, workers: c.workers, timings })).pipeline;
     } else {
-      p = await runPipelineParallel({ scenario, workers: c.workers });
+      p = await runPipelineParallel({ scenario, workers: c.workers, timings });
+      if (c.mode === 'core') {
+        maskResults(scenario, p);
+        runSummary(scenario, p.daily, []);
+      }
     }
     const wallS = Number(process.hrtime.bigint() - t0) / 1e9;
+    const maxRssMB = process.resourceUsage().maxRSS / 1024;
     let fingerprint: string;
     if (c.mode === 'run') {
       const f = fingerprinter();
@@ -142,16 +155,14 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
     const res: CaseResult = {
       ...c, wallS, moduleLoadS, tablesS,
       secondsPerDayWithStartup: (moduleLoadS + wallS) / c.days, secondsPerDayExclStartup: (wallS - tablesS) / c.days,
-      linkSteps: p.linkSteps, stationSteps: p.stationSteps, gridTimes: p.gridTimes, passes: p.passes.length,
-      linkStepsPerS: p.linkSteps / wallS, secondsPerDay: wallS / c.days, maxRssMB: 0, stepsCsvMB, reportMB, fingerprint,
+      linkSteps: p.linkSteps, stationSteps: p.stationSteps, gridTimes: p.gridTimes, passes: p.passes.length, sgp4Calls: p.sgp4Calls,
+      linkStepsPerS: p.linkSteps / wallS, usPerLinkStep: (wallS * 1e6) / p.linkSteps, maxRssMB, stepsCsvMB, reportMB, fingerprint,
+      ...(timings ? { timings } : {}),
     };
     if (c.withFloor) {
-      const inst = floorInstants(scenario);
-      const f = floorLoop(scenario, inst);
-      const n = inst.scanInstants + inst.gridInstants;
-      res.floor = { seconds: f.seconds, scanInstants: inst.scanInstants, gridInstants: inst.gridInstants, ratio: wallS / f.seconds, instantsPerS: n / f.seconds };
+      const f = floorOf(scenario);
+      res.floor = { ...f, ratio: wallS / f.seconds };
     }
-    res.maxRssMB = process.resourceUsage().maxRSS / 1024;
     return res;
   } finally {
     rmSync(tmp, { recursive: true, force: true });
@@ -159,16 +170,29 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
 }
 
 function table(results: CaseResult[]): string {
-  const head = ['case', 'stations', 'days', 'workers', 'outputs', 'wall_s', 'start-up_s', 's/day incl. start-up', 's/day excl. start-up', 'link-steps', 'link-steps/s', 'floor_s', 'floor ratio', 'max RSS MB'];
+  const head = ['case', 'stations', 'days', 'workers', 'outputs', 'wall_s', 'start-up_s', 's/day incl. start-up', 's/day excl. start-up', 'link-steps', 'µs/link-step', 'floor_s', 'floor ratio', 'max RSS MB'];
+  const outputs = { run: (r: CaseResult) => (r.steps ? 'all' : 'all but steps.csv'), core: () => 'none (sweep + summaries)', pipeline: () => 'pipeline only' };
   const rows = results.map((r) => [
-    r.id, String(r.stations), String(r.days), String(r.workers),
-    r.mode === 'run' ? (r.steps ? 'all' : 'all but steps.csv') : 'pipeline only',
-    r.wallS.toFixed(2), (r.moduleLoadS + r.tablesS).toFixed(2), r.secondsPerDayWithStartup.toFixed(3), r.secondsPerDayExclStartup.toFixed(3), String(r.linkSteps), (r.linkStepsPerS / 1e6).toFixed(2) + 'M',
+    r.id, String(r.stations), String(r.days), String(r.workers), outputs[r.mode](r),
+    r.wallS.toFixed(2), (r.moduleLoadS + r.tablesS).toFixed(2), r.secondsPerDayWithStartup.toFixed(3), r.secondsPerDayExclStartup.toFixed(3),
+    String(r.linkSteps), r.usPerLinkStep.toFixed(3),
     r.floor ? r.floor.seconds.toFixed(2) : '', r.floor ? r.floor.ratio.toFixed(2) : '', r.maxRssMB.toFixed(0),
   ]);
   const w = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const line = (r: string[]) => r.map((c, i) => (i < 5 ? c.padEnd(w[i]) : c.padStart(w[i]))).join('  ');
   return [line(head), w.map((n) => '-'.repeat(n)).join('  '), ...rows.map(line)].join('\n');
+}
+
+function breakdown(r: CaseResult): string | null {
+  const t = r.timings;
+  if (!t) return null;
+  const parts: [string, number][] = [
+    ['pass search', t.passSearchS], ['elevation tables', t.tablesS], ['propagation', t.propagationS], ['geometry', t.geometryS],
+    ['budget', t.budgetS], ['accumulators', t.accumulatorsS], ['steps.csv rows', t.stepsS], ['other outputs', t.outputsS],
+  ];
+  const known = parts.reduce((s, [, v]) => s + v, 0);
+  parts.push(['rest (planning, merging, start of run)', Math.max(0, r.wallS - known)]);
+  return `${r.id} time: ${parts.filter(([, v]) => v > 0.0005).map(([k, v]) => `${k} ${v.toFixed(2)} s (${((100 * v) / r.wallS).toFixed(0)} %)`).join(', ')}`;
 }
 
 async function main(): Promise<void> {
@@ -190,10 +214,12 @@ async function main(): Promise<void> {
     results.push(JSON.parse(out.trim().split('\n').pop()!) as CaseResult);
   }
   const lines = [table(results), ''];
-  const w1 = results.find((r) => r.id === 'W1');
-  if (w1?.floor) {
-    lines.push(`W1 floor: ${w1.floor.scanInstants} pass-finder instants + ${w1.floor.gridInstants} in-pass grid instants, bare satellite.js loop ${(w1.floor.instantsPerS / 1e6).toFixed(2)}M instants/s; steps.csv ${w1.stepsCsvMB?.toFixed(0)} MB, report.html ${w1.reportMB?.toFixed(1)} MB`);
+  for (const r of results) {
+    if (!r.floor) continue;
+    lines.push(`${r.id} floor: ${r.floor.scanInstants} pass-finder instants + ${r.floor.gridInstants} in-pass grid instants, bare satellite.js ${(r.floor.instantsPerS / 1e6).toFixed(2)}M instants/s; the run made ${r.sgp4Calls} SGP4 calls`
+      + `${r.stepsCsvMB !== null ? `; steps.csv ${r.stepsCsvMB.toFixed(0)} MB` : ''}${r.reportMB !== null ? `, report.html ${r.reportMB.toFixed(1)} MB` : ''}`);
   }
+  for (const r of results) { const b = breakdown(r); if (b) lines.push(b); }
   const win = ['window-7', 'window-28', 'window-112'].map((id) => results.find((r) => r.id === id)).filter((r): r is CaseResult => !!r);
   if (win.length > 1) {
     const spread = (per: number[]) => (Math.max(...per) - Math.min(...per)) / Math.min(...per);

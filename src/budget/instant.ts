@@ -9,9 +9,8 @@
 import { InputError } from '../errors.js';
 import { createStationGeometry } from '../geometry/station.js';
 import { createGeometrySample, type GeometrySample } from '../geometry/types.js';
-import { createPropagator } from '../orbit/propagator.js';
 import { formatIsoUtc } from '../orbit/time.js';
-import { findPasses } from '../passes/find.js';
+import { createOrbit, findPasses } from '../passes/find.js';
 import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { createLinkEngine, createStepBudget, type LinkEngine } from './engine.js';
@@ -61,7 +60,8 @@ export function budgetAtInstant(
   const candidates = scenario.links.filter((l) => l.satellite === sat.name && l.station === stn.station.name);
   const link = pick(candidates, names.link, (l) => l.name, '--link', `${file} for ${sat.name} at ${stn.station.name}`);
   const engine = createLinkEngine({ link, climate: stn.climate, weatherCases: scenario.weatherCases });
-  const prop = createPropagator(sat.elements);
+  // The run's own orbit (interpolated between SGP4 nodes unless exact_orbit), so the numbers are steps.csv's.
+  const prop = createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
   const geo = createStationGeometry(stn.station);
   const sample = createGeometrySample();
   const warnings: string[] = [];
@@ -75,12 +75,12 @@ export function budgetAtInstant(
     // scenario window when the instant is inside it, else searched in the 3 h before.
     const inWindow = timeS >= startS && timeS <= endS;
     const around = findPasses({
-      propagator: prop, station: stn.station, startS: inWindow ? startS : timeS - 3 * 3600, endS: inWindow ? endS : timeS + 60,
+      orbit: prop, station: stn.station, startS: inWindow ? startS : timeS - 3 * 3600, endS: inWindow ? endS : timeS + 60,
     });
     pass = around.find((p) => p.aosS <= timeS && timeS <= p.losS) ?? null;
     if (!pass) warnings.push(`${formatIsoUtc(timeS)} is not inside a pass of ${sat.name} over ${stn.station.name} (the budget is shown anyway)`);
   } else {
-    const passes = findPasses({ propagator: prop, station: stn.station, startS, endS });
+    const passes = findPasses({ orbit: prop, station: stn.station, startS, endS });
     if (!(Number.isInteger(instant.pass) && instant.pass >= 1 && instant.pass <= passes.length)) {
       throw new InputError(`--pass: ${instant.pass} is not a pass of ${sat.name} over ${stn.station.name} in the scenario window (allowed 1–${passes.length})`);
     }
@@ -104,8 +104,11 @@ export function budgetAtInstant(
 
   engine.beginPass();
   if (pass) {
+    // The mount's state as the run has it: the run's grid steps from the pass's first one up to the instant.
     const step = createStepBudget(scenario.weatherCases);
-    for (let t = pass.aosS; t < timeS; t += stepS) engine.evaluate(geo.sample(prop, t, sample), step);
+    for (let k = Math.ceil((pass.aosS - startS) / stepS - 1e-9); startS + k * stepS < timeS - 1e-9; k++) {
+      engine.evaluate(geo.sample(prop, startS + k * stepS, sample), step);
+    }
   }
   geo.sample(prop, timeS, sample);
   const step = createStepBudget(scenario.weatherCases);

@@ -2,6 +2,7 @@ import type { Command } from 'commander';
 import { InputError } from '../errors.js';
 import { formatMaskResult, maskScenario } from '../jobs/finders.js';
 import { loadScenario } from '../scenario/index.js';
+import { withExactOrbit } from './run.js';
 
 export function register(program: Command): void {
   program
@@ -11,13 +12,14 @@ export function register(program: Command): void {
     .option('--fraction <f>', 'fraction of time above the mask that must meet the margin (0 < f ≤ 1; default the scenario, else 1)')
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--quiet', 'no progress bar and no table')
-    .action(async (file: string, o: { fraction?: string; out?: string; quiet?: boolean }) => {
+    .option('--exact-orbit', 'SGP4 at every step instead of interpolating between SGP4 nodes (slower; a check)')
+    .action(async (file: string, o: { fraction?: string; out?: string; quiet?: boolean; exactOrbit?: boolean }) => {
       let fraction: number | undefined;
       if (o.fraction !== undefined) {
         fraction = Number(o.fraction);
         if (!(fraction > 0 && fraction <= 1)) throw new InputError(`--fraction: ${JSON.stringify(o.fraction)} is out of range (allowed a number 0 < f ≤ 1)`);
       }
-      const scenario = loadScenario(file, { outDir: o.out });
+      const scenario = withExactOrbit(loadScenario(file, { outDir: o.out }), o.exactOrbit);
       const r = await maskScenario(scenario, { outDir: o.out, quiet: o.quiet, fraction });
       if (!o.quiet) process.stdout.write(`${formatMaskResult(r)}\n`);
     });

@@ -14,7 +14,7 @@ import { MASK_MAX_DEG, MASK_MIN_DEG } from '../geometry/mask.js';
 import { parseStationSpec } from '../geometry/spec.js';
 import { createPropagator } from '../orbit/propagator.js';
 import { parseDuration, parseIsoUtc } from '../orbit/time.js';
-import { findPasses } from '../passes/find.js';
+import { createOrbit, findPasses } from '../passes/find.js';
 import { passesCsv, passesJson, passesTable } from '../passes/table.js';
 import type { Pass } from '../passes/types.js';
 import { writeFileAtomic } from '../output/atomic.js';
@@ -30,6 +30,7 @@ interface PassesOptions {
   format: string;
   out?: string;
   tz?: string;
+  exactOrbit?: boolean;
 }
 
 const collect = (v: string, acc: string[]) => [...acc, v];
@@ -49,6 +50,7 @@ export function register(program: Command): void {
     .option('--format <fmt>', 'table, csv or json', 'table')
     .option('--out <file>', 'write to this file (atomically) instead of stdout')
     .option('--tz <zone>', 'IANA time zone for the table times (default UTC)')
+    .option('--exact-orbit', 'SGP4 at every instant instead of interpolating between SGP4 nodes (slower; a check)')
     .action((opts: PassesOptions) => runPasses(opts));
 }
 
@@ -87,7 +89,9 @@ function runPasses(o: PassesOptions): void {
 
   const passes: Pass[] = [];
   for (const propagator of propagators) {
-    for (const station of stations) passes.push(...findPasses({ propagator, station, startS, endS }));
+    // One orbit per element set, shared by the stations (its SGP4 nodes computed once).
+    const orbit = createOrbit(propagator, { startS, stepS: 1 }, o.exactOrbit === true);
+    for (const station of stations) passes.push(...findPasses({ orbit, station, startS, endS }));
   }
   passes.sort((a, b) => a.aosS - b.aosS);
   const text = o.format === 'csv' ? passesCsv(passes) : o.format === 'json' ? passesJson(passes) : passesTable(passes, o.tz);

@@ -2,6 +2,7 @@ import type { Command } from 'commander';
 import { InputError } from '../errors.js';
 import { formatRateResult, rateScenario } from '../jobs/finders.js';
 import { loadScenario } from '../scenario/index.js';
+import { withExactOrbit } from './run.js';
 
 /** `--rates 9600,19200` or `--rates 1000:1000000:13` (13 log-spaced rates from 1 kb/s to 1 Mb/s). */
 export function parseRates(text: string): number[] {
@@ -25,9 +26,10 @@ export function register(program: Command): void {
     .option('--rates <list>', 'bit rates in b/s: 9600,19200,... or MIN:MAX:COUNT (log-spaced); default the scenario')
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--quiet', 'no progress bar and no table')
-    .action(async (file: string, o: { rates?: string; out?: string; quiet?: boolean }) => {
+    .option('--exact-orbit', 'SGP4 at every step instead of interpolating between SGP4 nodes (slower; a check)')
+    .action(async (file: string, o: { rates?: string; out?: string; quiet?: boolean; exactOrbit?: boolean }) => {
       const ratesBps = o.rates !== undefined ? parseRates(o.rates) : undefined;
-      const scenario = loadScenario(file, { outDir: o.out });
+      const scenario = withExactOrbit(loadScenario(file, { outDir: o.out }), o.exactOrbit);
       const r = await rateScenario(scenario, { outDir: o.out, quiet: o.quiet, ratesBps });
       if (!o.quiet) process.stdout.write(`${formatRateResult(r)}\n`);
     });

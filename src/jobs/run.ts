@@ -8,7 +8,7 @@
 import { resolve, join } from 'node:path';
 import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
 import { findMask, maskTrade } from '../analysis/maskHistogram.js';
-import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope } from '../sweep/types.js';
+import { ENVELOPE_BIN_DEG, ENVELOPE_BINS, type PipelineResult, type StationLinkEnvelope, type SweepTimings } from '../sweep/types.js';
 import { bitsToMegabytes } from '../analysis/units.js';
 import type { MaskFinding, MaskTradePoint, PassLinkSummary, RunSummary } from '../analysis/types.js';
 import { epochWarning } from '../elements/index.js';
@@ -32,6 +32,8 @@ export interface RunOptions {
   steps?: boolean;
   /** Worker threads for the sweep (default 1: in this thread); outputs are identical for any count. */
   workers?: number;
+  /** With one worker: filled with where the time goes (the benchmark). */
+  timings?: SweepTimings;
 }
 
 export interface RunResult {
@@ -127,8 +129,10 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
       collectSeries: true,
       stepsOut: writeSteps ? out.stream('steps.csv') : null,
       onProgress: progress.update,
+      timings: opts.timings,
     });
     progress.done();
+    const outputsT0 = performance.now();
 
     const { trade, findings } = maskResults(scenario, pipeline);
     // The pass records, built once from the compact table for the outputs that list them.
@@ -143,6 +147,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
     out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
     const files = out.commit();
+    if (opts.timings) opts.timings.outputsS += (performance.now() - outputsT0) / 1000;
     return { outDir, files, summary, pipeline, maskTrade: trade, maskFindings: findings };
   } catch (err) {
     progress.done();

@@ -59,13 +59,14 @@ export const DVBS2_MODES: readonly AdaptiveMode[] = Object.freeze(([
 
 /**
  * Index of the most efficient mode with requiredEsN0DB + requiredMarginDB ≤ esN0DB
- * (ties: the lower requirement), or −1 when none fits. Modes need not be sorted. No allocation.
+ * (ties: the lower requirement), or −1 when none fits (or Es/N0 is NaN). Modes need not be sorted. No allocation.
  */
 export function selectAdaptiveMode(modes: readonly AdaptiveMode[], esN0DB: number, requiredMarginDB: number): number {
   let best = -1;
   for (let i = 0; i < modes.length; i++) {
     const m = modes[i];
-    if (m.requiredEsN0DB + requiredMarginDB > esN0DB) continue;
+    // Written so that a NaN Es/N0 fits no mode (a '>' test would let NaN fit every one).
+    if (!(m.requiredEsN0DB + requiredMarginDB <= esN0DB)) continue;
     if (best < 0 || m.efficiencyBitsPerSymbol > modes[best].efficiencyBitsPerSymbol
       || (m.efficiencyBitsPerSymbol === modes[best].efficiencyBitsPerSymbol && m.requiredEsN0DB < modes[best].requiredEsN0DB)) {
       best = i;

@@ -87,18 +87,27 @@ export interface OrbitSource {
   readonly description: string;
 }
 
-/** Lagrange weights of the 8 nodes −3…4 at fractional position u (in node spacings from node 0). */
+/** Barycentric constants of the nodes −3…4: 1 / Π_(m≠i) (x_i − x_m). */
+const BARY = Float64Array.from({ length: STENCIL }, (_, i) => {
+  let d = 1;
+  for (let m = 0; m < STENCIL; m++) if (m !== i) d *= (i - LEFT) - (m - LEFT);
+  return 1 / d;
+});
+
+/**
+ * Lagrange weights of the 8 nodes −3…4 at fractional position u (in node
+ * spacings from node 0): w_i = ℓ(u) b_i / (u − x_i), ℓ(u) = Π (u − x_m), the
+ * first barycentric form (the same polynomial, a few times cheaper than the
+ * product per weight); at a node the weights are exactly 0 and 1.
+ */
 export function lagrangeWeights(u: number, out: Float64Array): Float64Array {
-  for (let i = 0; i < STENCIL; i++) {
-    const xi = i - LEFT;
-    let w = 1;
-    for (let m = 0; m < STENCIL; m++) {
-      if (m === i) continue;
-      const xm = m - LEFT;
-      w *= (u - xm) / (xi - xm);
-    }
-    out[i] = w;
+  let l = 1;
+  for (let m = 0; m < STENCIL; m++) {
+    const d = u - (m - LEFT);
+    if (d === 0) { out.fill(0); out[m] = 1; return out; }
+    l *= d;
   }
+  for (let i = 0; i < STENCIL; i++) out[i] = (l * BARY[i]) / (u - (i - LEFT));
   return out;
 }
 

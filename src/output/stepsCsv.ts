@@ -67,16 +67,23 @@ const MINUS = 45;
 const TRUE_BYTES = Uint8Array.from([116, 114, 117, 101]);
 const FALSE_BYTES = Uint8Array.from([102, 97, 108, 115, 101]);
 
-/** Decimal digits of the integer 0 ≤ n < 1e9 at b[o…]; returns the offset after them. */
+/** "00" … "99" as bytes: two digits per int32 division. */
+const DIG2 = Uint8Array.from({ length: 200 }, (_, i) => ZERO + (i % 2 === 0 ? Math.floor(i / 20) : (i >> 1) % 10));
+
+/** Decimal digits of the integer 0 ≤ n < 2^31 at b[o…] (int32 arithmetic); returns the offset after them. */
 function putInt(b: Uint8Array, o: number, n: number): number {
-  let len = 1;
-  for (let t = n; t >= 10; t = (t - (t % 10)) / 10) len++;
-  let q = n;
-  for (let i = o + len - 1; i >= o; i--) {
-    const r = q % 10;
-    b[i] = ZERO + r;
-    q = (q - r) / 10;
+  if (n < 10) { b[o] = ZERO + n; return o + 1; }
+  const len = n < 100 ? 2 : n < 1000 ? 3 : n < 10_000 ? 4 : n < 100_000 ? 5 : n < 1_000_000 ? 6
+    : n < 10_000_000 ? 7 : n < 100_000_000 ? 8 : n < 1_000_000_000 ? 9 : 10;
+  let q = n | 0;
+  let p = o + len;
+  while (q >= 100) {
+    const t = (q / 100) | 0;
+    const r = (q - t * 100) << 1;
+    b[--p] = DIG2[r + 1]; b[--p] = DIG2[r];
+    q = t;
   }
+  if (q >= 10) { const r = q << 1; b[--p] = DIG2[r + 1]; b[--p] = DIG2[r]; } else b[--p] = ZERO + q;
   return o + len;
 }
 
@@ -95,25 +102,32 @@ function putBytes(b: Uint8Array, o: number, bytes: Uint8Array): number {
 
 /** `fixedDecimal(v, d)` as bytes: the same fast path and the same fallback (fmt), so the same characters. */
 export function putFixed(b: Uint8Array, o: number, value: number, decimals: number): number {
-  if (decimals <= 3 && value === value && value !== Infinity && value !== -Infinity) {
+  if (decimals <= 3) {
     const neg = value < 0;
     const x = (neg ? -value : value) * POW10[decimals];
+    // NaN and ±Infinity fail this test too and take toFixed's own path.
     if (x < 1e9) {
-      const fl = Math.floor(x);
+      const fl = x | 0; // x < 1e9 < 2^31: truncation is floor
       const fr = x - fl;
       if (fr < 0.499999 || fr > 0.500001) {
+        // n ≤ 1e9 < 2^31: integer (int32) arithmetic from here.
         const n = fr < 0.5 ? fl : fl + 1;
         if (neg && n !== 0) b[o++] = MINUS;
+        if (decimals === 0) return putInt(b, o, n);
         const p = POW10[decimals];
-        const r = n % p;
-        o = putInt(b, o, (n - r) / p);
-        if (decimals > 0) {
-          b[o++] = DOT;
-          let q = r;
-          for (let i = o + decimals - 1; i >= o; i--) { const dgt = q % 10; b[i] = ZERO + dgt; q = (q - dgt) / 10; }
-          o += decimals;
+        const ip = (n / p) | 0;
+        o = putInt(b, o, ip);
+        b[o++] = DOT;
+        const q = n - ip * p;
+        if (decimals === 3) {
+          const h = (q / 100) | 0;
+          const r = (q - h * 100) << 1;
+          b[o] = ZERO + h; b[o + 1] = DIG2[r]; b[o + 2] = DIG2[r + 1];
+          return o + 3;
         }
-        return o;
+        if (decimals === 2) { const r = q << 1; b[o] = DIG2[r]; b[o + 1] = DIG2[r + 1]; return o + 2; }
+        b[o] = ZERO + q;
+        return o + 1;
       }
     }
   }
@@ -167,27 +181,33 @@ interface ByteHelpers {
   bytes: typeof putBytes;
   /** Text cell bytes (quoted as csvField), cached. */
   tx: (s: string) => Uint8Array;
-  /** Mode cell bytes: the mode's name when usable, else empty. */
-  mode: (p: StepPart, index: number, usable: number) => Uint8Array;
   T: Uint8Array;
   F: Uint8Array;
 }
-type RowIntoFn = (p: StepPart, i: number, t: number, b: Uint8Array, o: number, H: ByteHelpers) => number;
+/** A window part with its text cells as bytes, ready for rows: pass id; ",satellite,station,link"; mode names by index. */
+export interface PreparedPart {
+  part: StepPart;
+  id: Uint8Array;
+  names: Uint8Array;
+  modes: Uint8Array[];
+  /** Bytes any row of the part may take at most. */
+  bound: number;
+}
+type RowIntoFn = (p: StepPart, pp: PreparedPart, i: number, t: number, b: Uint8Array, o: number) => number;
 
 /**
  * The row function, generated once from the column lists so each cell is a
  * plain typed-array read (a loop over field names costs a keyed lookup per
  * cell). Sources are checked to cover every column.
  */
-function compileRowInto(nCases: number): RowIntoFn {
-  const lines = ['const s = p.stn; const c = p.cols; const cs = c.cases;',
-    'o = H.bytes(b, o, H.tx(p.passId)); b[o++] = 44; o = H.iso(b, o, t); b[o++] = 44;',
-    'o = H.bytes(b, o, H.tx(p.satellite)); b[o++] = 44; o = H.bytes(b, o, H.tx(p.station)); b[o++] = 44; o = H.bytes(b, o, H.tx(p.link.name));'];
+function compileRowInto(nCases: number, H: ByteHelpers): RowIntoFn {
+  const lines = ['const s = p.stn; const c = p.cols; const cs = c.cases; let v;',
+    'o = bytes(b, o, pp.id); b[o++] = 44; o = iso(b, o, t); o = bytes(b, o, pp.names);', 'const md = pp.modes;'];
   const cellCode = (f: string, src: string | undefined, d: number) => {
     if (src === undefined) throw new Error(`steps.csv: no source for column ${f}`);
-    if (BOOLEAN_FIELDS.has(f)) return `b[o++] = 44; o = H.bytes(b, o, ${src} === 1 ? H.T : H.F);`;
-    if (f === 'mode') return `b[o++] = 44; o = H.bytes(b, o, H.mode(p, ${src}, k.usable[i]));`;
-    return `b[o++] = 44; o = H.fixed(b, o, ${src}, ${d});`;
+    if (BOOLEAN_FIELDS.has(f)) return `b[o++] = 44; o = bytes(b, o, ${src} === 1 ? T : F);`;
+    if (f === 'mode') return `b[o++] = 44; v = ${src}; if (v >= 0 && k.usable[i] === 1) o = bytes(b, o, md[v]);`;
+    return `b[o++] = 44; o = fixed(b, o, ${src}, ${d});`;
   };
   for (const f of STEP_FIELDS) lines.push(cellCode(f, STEP_SOURCE[f], decimalsFor(f)));
   for (let j = 0; j < nCases; j++) {
@@ -196,12 +216,13 @@ function compileRowInto(nCases: number): RowIntoFn {
     lines.push('}');
   }
   lines.push('b[o++] = 10; return o;');
+  // The helpers are bound as the generated function's own variables (direct calls, not loads from an object per cell).
   // eslint-disable-next-line @typescript-eslint/no-implied-eval
-  return new Function('p', 'i', 't', 'b', 'o', 'H', lines.join('\n')) as RowIntoFn;
+  const make = new Function('fixed', 'iso', 'bytes', 'T', 'F', `return function rowInto(p, pp, i, t, b, o) {\n${lines.join('\n')}\n};`);
+  return make(H.fixed, H.iso, H.bytes, H.T, H.F) as RowIntoFn;
 }
 
 const NON_ASCII = /[^\x00-\x7f]/;
-const EMPTY = new Uint8Array(0);
 
 export interface StepsCsvFormatter {
   /** Header line (with its newline). */
@@ -210,6 +231,10 @@ export interface StepsCsvFormatter {
   rowInto(p: StepPart, i: number, timeS: number, buf: Uint8Array, off: number): number;
   /** An upper bound of the bytes any row of part `p` takes. */
   rowBytesBound(p: StepPart): number;
+  /** The part's text cells as bytes (once per part and window), for rowIntoPrepared. */
+  prepare(p: StepPart): PreparedPart;
+  /** rowInto with the part prepared. */
+  rowIntoPrepared(pp: PreparedPart, i: number, timeS: number, buf: Uint8Array, off: number): number;
   /** The same row as a string (tests, and the rare row longer than a piece buffer). */
   row(p: StepPart, i: number, timeS: number): string;
   /** False once a text cell held a non-ASCII character. */
@@ -232,33 +257,49 @@ export function createStepsCsvFormatter(cases: readonly WeatherCase[]): StepsCsv
   };
   const H: ByteHelpers = {
     fixed: putFixed, iso: putIso, bytes: putBytes, tx, T: TRUE_BYTES, F: FALSE_BYTES,
-    mode: (p, index, usable) => (usable === 1 && index >= 0 ? tx(p.modeNames[index]) : EMPTY),
   };
-  const into = compileRowInto(cases.length);
+  const into = compileRowInto(cases.length, H);
   const cells = 5 + STEP_FIELDS.length + cases.length * CASE_FIELDS.length;
   const check = (p: StepPart) => {
     if (p.cols.cases.length !== cases.length) throw new Error(`steps.csv: step has ${p.cols.cases.length} weather cases, expected ${cases.length}`);
   };
-  const bound = (p: StepPart) => {
-    let n = cells * (NUMBER_CELL_BYTES + 1) + 1 + tx(p.passId).length + tx(p.satellite).length + tx(p.station).length + tx(p.link.name).length;
+  const namesCache = new Map<string, Uint8Array>();
+  const prepare = (p: StepPart): PreparedPart => {
+    check(p);
+    const id = tx(p.passId);
+    const key = `${p.satellite}\u0000${p.station}\u0000${p.link.name}`;
+    let names = namesCache.get(key);
+    if (!names) {
+      const s = tx(p.satellite), st = tx(p.station), l = tx(p.link.name);
+      names = new Uint8Array(3 + s.length + st.length + l.length);
+      let o = 0;
+      names[o++] = 44; names.set(s, o); o += s.length;
+      names[o++] = 44; names.set(st, o); o += st.length;
+      names[o++] = 44; names.set(l, o);
+      namesCache.set(key, names);
+    }
+    const modes = p.modeNames.map(tx);
     let longestMode = 0;
-    for (const m of p.modeNames) longestMode = Math.max(longestMode, tx(m).length);
-    n += cases.length * longestMode;
-    return n;
+    for (const m of modes) longestMode = Math.max(longestMode, m.length);
+    return { part: p, id, names, modes, bound: cells * (NUMBER_CELL_BYTES + 1) + 1 + id.length + names.length + cases.length * longestMode };
   };
+  const bound = (p: StepPart) => prepare(p).bound;
   const scratch = { buf: new Uint8Array(1 << 16) };
   return {
     header,
     rowInto(p, i, t, buf, off) {
-      check(p);
-      return into(p, i, t, buf, off, H);
+      return into(p, prepare(p), i, t, buf, off);
+    },
+    prepare,
+    rowIntoPrepared(pp, i, t, buf, off) {
+      return into(pp.part, pp, i, t, buf, off);
     },
     rowBytesBound: bound,
     row(p, i, t) {
       check(p);
       const need = bound(p);
       if (scratch.buf.length < need) scratch.buf = new Uint8Array(need);
-      const n = into(p, i, t, scratch.buf, 0, H);
+      const n = into(p, prepare(p), i, t, scratch.buf, 0);
       return Buffer.from(scratch.buf.buffer, scratch.buf.byteOffset, n).toString('utf8');
     },
     get ascii() { return ascii; },
@@ -277,7 +318,8 @@ export interface RowTarget {
 /** The rows of a window in steps.csv order into `target`; a promise when the target asked to wait (it has the bytes already). */
 export function writeWindowRows(fmt: StepsCsvFormatter, w: StepWindow, target: RowTarget): void | Promise<void> {
   const parts = w.parts;
-  const bounds = parts.map((p) => fmt.rowBytesBound(p));
+  const prepared = parts.map((p) => fmt.prepare(p));
+  const bounds = prepared.map((p) => p.bound);
   let pending: Promise<void> | undefined;
   const wait = (x: void | Promise<void>) => { if (x) pending = pending ? pending.then(() => x) : x; };
   for (let k = w.k0; k < w.k1; k++) {
@@ -288,7 +330,7 @@ export function writeWindowRows(fmt: StepsCsvFormatter, w: StepWindow, target: R
       if (i < 0 || i >= p.n) continue;
       if (target.filled + bounds[j] > target.capacity) wait(target.flush());
       if (bounds[j] > target.capacity) { wait(target.writeRaw(Buffer.from(fmt.row(p, i, t), 'utf8'))); continue; }
-      target.filled = fmt.rowInto(p, i, t, target.buffer, target.filled);
+      target.filled = fmt.rowIntoPrepared(prepared[j], i, t, target.buffer, target.filled);
     }
   }
   return pending;
@@ -308,6 +350,7 @@ export function stepsCsvSink(writer: ChunkedTextWriter, fmt: StepsCsvFormatter):
 export class ChunkedTextWriter implements RowTarget {
   private buf: Buffer;
   private off = 0;
+  private readonly pool: Buffer[] = [];
   constructor(
     private readonly out: Writable,
     private readonly ascii: () => boolean = () => false,
@@ -345,10 +388,13 @@ export class ChunkedTextWriter implements RowTarget {
 
   flush(): void | Promise<void> {
     if (this.off === 0) return undefined;
-    const piece = this.buf.subarray(0, this.off);
-    this.buf = Buffer.allocUnsafe(this.pieceBytes);
+    const full = this.buf;
+    const piece = full.subarray(0, this.off);
+    // A piece buffer goes back to the pool once the stream has written it (hundreds of 1 MB buffers otherwise churn the heap).
+    this.buf = this.pool.pop() ?? Buffer.allocUnsafe(this.pieceBytes);
     this.off = 0;
-    if (!this.out.write(piece) && this.out.writableLength > this.maxBufferedBytes) return once(this.out, 'drain').then(() => undefined);
+    const ok = this.out.write(piece, () => { if (this.pool.length < 8) this.pool.push(full); });
+    if (!ok && this.out.writableLength > this.maxBufferedBytes) return once(this.out, 'drain').then(() => undefined);
     return undefined;
   }
 

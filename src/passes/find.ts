@@ -38,11 +38,11 @@ export interface FindPassesOptions {
   endS: number;
   /** Coarse scan step (s); default from the orbit (`passScanStepS`), tied to the node spacing. */
   scanStepS?: number;
-  /** Root and extremum tolerance (s); default 0.001 s (AOS/LOS then move by well under 1 ms between the interpolated and the exact orbit). */
+  /** Root and extremum tolerance (s); default 0.5 ms (each event within 0.25 ms of its root, so the interpolated and the exact orbit agree to 0.5 ms). */
   toleranceS?: number;
 }
 
-export const DEFAULT_EVENT_TOLERANCE_S = 0.001;
+export const DEFAULT_EVENT_TOLERANCE_S = 0.0005;
 
 /** The orbit a run uses for one element set: nodes tied to the grid (startS, stepS), or SGP4 at every instant. */
 export function createOrbit(elements: ElementSet | Propagator, grid: { startS: number; stepS: number }, exact = false): OrbitSource {

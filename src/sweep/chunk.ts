@@ -29,7 +29,7 @@ import { completePass, createOrbit } from '../passes/find.js';
 import type { Pass } from '../passes/types.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
-import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator, type DailyStepCase } from '../analysis/dailyAccumulator.js';
+import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
 import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
 import { networkEligible, networkOutranks, stationRank } from '../analysis/network.js';
 import { createPassAccumulator, type PassAccumulator } from '../analysis/passAccumulator.js';
@@ -38,7 +38,7 @@ import { createRateHistogram, type RateHistogram } from '../analysis/rateHistogr
 import { judgePass } from '../analysis/verdict.js';
 import type { SatelliteLayout } from './layout.js';
 import type { PlannedPass } from './plan.js';
-import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
+import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
 import { forEachRow, type StepPart, type StepWindow } from './window.js';
 
 /** Grid times per window: large enough to amortise the per-window work, small enough that the columns stay in cache. */
@@ -53,6 +53,8 @@ export interface SweepOptions {
   seriesMaxPoints?: number;
   /** Called after each pass with its duration (s). */
   onPassDone?: (durationS: number) => void;
+  /** Filled with where the time goes. */
+  timings?: SweepTimings;
 }
 
 export interface Sweeper {
@@ -166,11 +168,17 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
     // Network contact = a maximal run of grid times with at least one station in view (a group).
     const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
-    const netCase: DailyStepCase = { usable: true, information_rate_bps: 0, es_over_n0_db: NaN };
+    const netChosen = { usable: new Uint8Array(WINDOW_STEPS), rate: new Float64Array(WINDOW_STEPS), es: new Float64Array(WINDOW_STEPS), from: new Int32Array(WINDOW_STEPS) };
 
+    const T = o.timings;
+    let clock = T ? performance.now() : 0;
+    /** Add the time since the last lap to one of the timings. */
+    const lap = (key: keyof SweepTimings) => { if (!T) return; const now = performance.now(); T[key] += (now - clock) / 1000; clock = now; };
     const begin = (it: PlannedPass): ItemRun => {
       const st = stations[it.station];
+      lap('accumulatorsS');
       const pass = completePass(satOrbit, st.geometry, it.crossing, it.index);
+      lap('passSearchS');
       part.passes.push(pass);
       const expected = Math.max(1, it.kLast - it.kFirst + 1);
       const run: ItemRun = {
@@ -276,6 +284,11 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             if (used > 0) nc.any = true;
             continue;
           }
+          // Several stations: per grid time the one the rule picks, gathered into columns and fed to the
+          // network's daily accumulator a run of equal links at a time.
+          const nw = w1 - w0;
+          const chosen = netChosen;
+          chosen.usable.fill(0, 0, nw);
           for (let k = w0; k < w1; k++) {
             let any = false;
             let best = -1, bi = -1;
@@ -295,19 +308,28 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
               }
               best = a; bi = i;
             }
+            const q = k - w0;
+            chosen.from[q] = best;
             if (!any) continue;
-            const t = startS + k * stepS;
-            if (Number.isNaN(nc.startS)) nc.startS = t;
+            if (Number.isNaN(nc.startS)) nc.startS = startS + k * stepS;
             nc.aboveS += stepS;
             if (best >= 0) {
-              const x = cands[best], l = cl[best];
-              const c = x.slot.cols[l].cases[ci];
-              netCase.information_rate_bps = c.informationRateBps[bi];
-              netCase.es_over_n0_db = c.esN0DB[bi];
-              daily.add(t, stepS, netCase, x.run.st.links[l].link);
+              const c = cands[best].slot.cols[cl[best]].cases[ci];
+              chosen.usable[q] = 1;
+              chosen.rate[q] = c.informationRateBps[bi];
+              chosen.es[q] = c.esN0DB[bi];
               nc.usableS += stepS;
               nc.any = true;
             }
+          }
+          for (let q = 0; q < nw;) {
+            if (chosen.usable[q] !== 1) { q++; continue; }
+            const a = chosen.from[q];
+            let r = q + 1;
+            while (r < nw && chosen.usable[r] === 1 && chosen.from[r] === a) r++;
+            const x = cands[a];
+            daily.addColumns(startS, w0, stepS, q, r, chosen.usable, chosen.rate, chosen.es, x.run.st.links[cl[a]].link, true);
+            q = r;
           }
         }
       }
@@ -355,8 +377,10 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         const w1 = Math.min(w0 + WINDOW_STEPS, maxLast + 1);
         const n = w1 - w0;
         satCols.n = n; satCols.k0 = w0;
+        lap('accumulatorsS');
         satOrbit.fillGrid(w0, n, satCols.teme);
         satelliteEarthFixed(satCols);
+        lap('propagationS');
         part.gridTimes += n;
         const active: Active[] = [];
         for (const g of group) {
@@ -365,7 +389,9 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           if (!run) { run = begin(g); runs.set(g, run); }
           const a = Math.max(g.kFirst, w0), b = Math.min(g.kLast + 1, w1), m = b - a;
           const slot = acquire(run.st);
+          lap('accumulatorsS');
           stationLook(run.st.geometry.frame, satCols, a - w0, b - w0, slot.stn);
+          lap('geometryS');
           const mh = run.st.links[0].mask[0];
           for (let q = 0; q < m; q++) slot.bins[q] = mh.binOf(slot.stn.elevationDeg[q]);
           part.stationSteps += m;
@@ -374,13 +400,17 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             const engine = run.st.links[l].engine;
             if (p === l) engine.spacecraftOffBoresight(satCols, a - w0, slot.stn, m, slot.scOff[l]);
             engine.evaluateColumns(satCols, a - w0, slot.stn, m, slot.cols[l], full, slot.scOff[p]);
+            lap('budgetS');
             part.linkSteps += m;
             accumulate(run, l, slot, a, m);
+            lap('accumulatorsS');
           }
           active.push({ run, slot, k0: a, n: m });
         }
         network(active, w0, w1);
+        lap('accumulatorsS');
         await emit(active, w0, w1);
+        lap('stepsS');
         for (const x of active) {
           x.run.st.free.push(x.slot);
           if (x.run.item.kLast < w1) { end(x.run); runs.delete(x.run.item); }

@@ -27,7 +27,7 @@ import { scenarioLayouts, type SatelliteLayout } from './layout.js';
 import { createSatelliteMerge, emptyPipelineResult, finishPipelineResult, type SatelliteMerge } from './merge.js';
 import { planFromSlabs, selectSeries, SERIES_MAX_SECTIONS, slabCount, type PlannedPass, type SlabEvents } from './plan.js';
 import { runPipeline } from './pipeline.js';
-import type { ChunkPartial, PipelineResult } from './types.js';
+import type { ChunkPartial, PipelineResult, SweepTimings } from './types.js';
 import type { FromWorker, ToWorker, WorkerInit } from './worker.js';
 
 export interface ParallelPipelineOptions {
@@ -45,6 +45,8 @@ export interface ParallelPipelineOptions {
   onProgress?: (doneS: number, totalS: number) => void;
   /** The worker script (default: worker.js beside this file, else dist/sweep/). */
   workerScript?: string;
+  /** With workers ≤ 1: filled with where the time goes. */
+  timings?: SweepTimings;
 }
 
 /** Check a --workers value: an integer from 1 to 64. */
@@ -76,6 +78,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
     const result = await runPipeline({
       scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections,
       maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress, onWindow: writer && fmt ? stepsCsvSink(writer, fmt) : undefined,
+      timings: o.timings,
     });
     if (writer) await writer.close();
     return result;

@@ -21,12 +21,16 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
   const plans: { layout: SatelliteLayout; plan: SatellitePlan; orbit: OrbitSource }[] = [];
   for (const layout of scenarioLayouts(scenario, options.maskFloorDeg)) {
     const orbit = createOrbit(scenario.satellites[layout.satIndex].elements, scenario.window, scenario.exactOrbit);
+    const t0 = performance.now();
     plans.push({ layout, plan: planSatellite(scenario, layout, orbit), orbit });
+    if (options.timings) options.timings.passSearchS += (performance.now() - t0) / 1000;
     result.sgp4Calls += orbit.sgp4Calls;
   }
   if (options.collectSeries) selectSeries(plans, options.seriesMaxSections ?? SERIES_MAX_SECTIONS);
   for (const { layout, plan, orbit } of plans) {
+    const t0 = performance.now();
     const sweeper = createSweeper(scenario, layout, undefined, orbit);
+    if (options.timings) options.timings.tablesS += (performance.now() - t0) / 1000;
     for (const e of sweeper.engines) result.engines.push(e);
     const merge = createSatelliteMerge(scenario, layout, result);
     let doneS = 0;
@@ -35,6 +39,7 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
       onWindow: options.onWindow,
       collectSeries: options.collectSeries,
       seriesMaxPoints: options.seriesMaxPoints,
+      timings: options.timings,
       onPassDone: (d) => { doneS += d; options.onProgress?.(doneS, plan.totalS); },
     };
     for (let c = 0; c + 1 < plan.chunkStarts.length; c++) {

@@ -44,6 +44,32 @@ export interface PipelineOptions {
   maskFloorDeg?: number;
   /** Progress callback: seconds of pass time processed and total. */
   onProgress?: (doneS: number, totalS: number) => void;
+  /** Filled with where the time goes (this thread's work). */
+  timings?: SweepTimings;
+}
+
+/**
+ * Where a sweep's time goes (s), when asked for (PipelineOptions.timings):
+ * pass search (scan, events, completing passes, with the SGP4 nodes they
+ * need), the elevation tables, propagation (nodes, interpolation, TEME →
+ * Earth-fixed on the grid), geometry (look angles), the budget (engines),
+ * the accumulators (pass, day, network, mask, rate, envelope, series) and the
+ * steps sink. Timed per window, so the clock calls cost nothing measurable.
+ */
+export interface SweepTimings {
+  passSearchS: number;
+  tablesS: number;
+  propagationS: number;
+  geometryS: number;
+  budgetS: number;
+  accumulatorsS: number;
+  stepsS: number;
+  /** `passbudget run` only: writing the other outputs (passes, daily, summary, calendar, report). */
+  outputsS: number;
+}
+
+export function createSweepTimings(): SweepTimings {
+  return { passSearchS: 0, tablesS: 0, propagationS: 0, geometryS: 0, budgetS: 0, accumulatorsS: 0, stepsS: 0, outputsS: 0 };
 }
 
 export interface StationLinkHistograms {

@@ -105,3 +105,58 @@ describe('engine: overhead pass on a slow mount vs a low pass', () => {
     expect(b).toEqual(a);
   });
 });
+
+describe('stepMount is the exact solution of its kinematic model (no sub-steps)', () => {
+  /** The same model integrated with 1 ms sub-steps (target linear between steps, each axis at most its rate toward it). */
+  function fine(steps: [number, number, number][], azRate: number, elRate: number): number[] {
+    let maz = steps[0][1], mel = steps[0][2];
+    const lags = [0];
+    for (let k = 1; k < steps.length; k++) {
+      const [t0, a0, e0] = steps[k - 1];
+      const [t1, a1, e1] = steps[k];
+      const n = Math.round((t1 - t0) / 1e-3);
+      const h = (t1 - t0) / n;
+      const dA = azimuthDeltaDeg(a0, a1), dE = e1 - e0;
+      for (let i = 1; i <= n; i++) {
+        const ta = a0 + (i / n) * dA, te = e0 + (i / n) * dE;
+        const da = azimuthDeltaDeg(maz, ta), de = te - mel;
+        maz += Math.abs(da) > azRate * h ? Math.sign(da) * azRate * h : da;
+        mel += Math.abs(de) > elRate * h ? Math.sign(de) * elRate * h : de;
+      }
+      const sep = (2 * Math.asin(Math.sqrt(Math.sin(((e1 - mel) * Math.PI) / 360) ** 2
+        + Math.cos((mel * Math.PI) / 180) * Math.cos((e1 * Math.PI) / 180) * Math.sin((azimuthDeltaDeg(maz, a1) * Math.PI) / 360) ** 2)) * 180) / Math.PI;
+      lags.push(sep);
+    }
+    return lags;
+  }
+  it('matches a 1 ms sub-step integration within 0.01° through a keyhole (azimuth swinging 180° in seconds)', () => {
+    // Target near zenith: azimuth swings from 10° to 190° over ~6 s, elevation peaks at 88°.
+    const steps: [number, number, number][] = [];
+    for (let t = 0; t <= 60; t++) {
+      const s = t - 30;
+      steps.push([t, (100 + (90 * 2 / Math.PI) * Math.atan(s / 2)) % 360, 88 - 0.02 * s * s]);
+    }
+    const ref = fine(steps, 3, 2);
+    const m = createMountState();
+    let worst = 0, maxLag = 0;
+    steps.forEach(([t, a, e], i) => {
+      stepMount(m, t, a, e, 3, 2);
+      worst = Math.max(worst, Math.abs(m.lagDeg - ref[i]));
+      maxLag = Math.max(maxLag, m.lagDeg);
+    });
+    expect(maxLag).toBeGreaterThan(10);
+    expect(worst).toBeLessThan(0.01);
+  });
+  it('catches up exactly: 4° behind on a target at 1°/s with a 3°/s mount closes in 2 s, then follows', () => {
+    const m = createMountState();
+    stepMount(m, 0, 100, 10, 3, 3);
+    stepMount(m, 1, 105, 10, 3, 3); // target jumps 5° in 1 s: the mount moves 3°, 2° behind
+    expect(m.lagDeg).toBeCloseTo(2 * Math.cos((10 * Math.PI) / 180), 2);
+    stepMount(m, 2, 106, 10, 3, 3); // closes at 2°/s: on target after 1 s
+    expect(m.lagDeg).toBe(0);
+    expect(m.limited).toBe(true);
+    stepMount(m, 3, 107, 10, 3, 3);
+    expect(m.lagDeg).toBe(0);
+    expect(m.limited).toBe(false);
+  });
+});
