@@ -19,6 +19,13 @@ export interface RateHistogramOptions {
   station?: string;
   link?: string;
   weather?: string;
+  /**
+   * Hold only the bins in use (grown as C/N0 values arrive) instead of all of
+   * them: a link's C/N0 spans tens of dB of the 150 dB range, so a sweep's
+   * per-chunk histograms take a fraction of the memory. `timeS` is then built
+   * on demand.
+   */
+  growable?: boolean;
 }
 
 export interface RateHistogram {
@@ -68,10 +75,21 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
   }
   const bins = Math.ceil((maxDBHz - minDBHz) / binDB - 1e-9) + 1;
   const edgeDBHz = (k: number) => Math.round((minDBHz + k * binDB) * 1e9) / 1e9;
-  const timeS = new Float64Array(bins);
+  const growable = options.growable === true;
+  // Bins base … base + store.length − 1 (all of them unless growable).
+  let store = new Float64Array(growable ? 0 : bins);
+  let base = 0;
   const edges = edgesFor(binDB, minDBHz, bins, edgeDBHz);
   let underflowS = 0;
   let touchedLo = bins, touchedHi = -1;
+  const grow = (k: number) => {
+    const lo = Math.max(0, Math.min(base, k) - 256);
+    const hi = Math.min(bins, Math.max(base + store.length, k + 1) + 256);
+    const next = new Float64Array(hi - lo);
+    next.set(store, base - lo);
+    store = next;
+    base = lo;
+  };
   const add = (cOverN0DBHz: number, dtS: number): void => {
     if (!(dtS > 0)) return;
     if (!(cOverN0DBHz >= minDBHz)) {
@@ -84,7 +102,8 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
     if (k > 0 && edges[k] > cOverN0DBHz) k--;
     if (k < touchedLo) touchedLo = k;
     if (k > touchedHi) touchedHi = k;
-    timeS[k] += dtS;
+    if (k < base || k >= base + store.length) grow(k);
+    store[k - base] += dtS;
   };
   return {
     binDB,
@@ -94,7 +113,12 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
     link: options.link ?? '',
     weather: options.weather ?? '',
     edgeDBHz,
-    timeS,
+    get timeS() {
+      if (!growable) return store;
+      const full = new Float64Array(bins);
+      full.set(store, base);
+      return full;
+    },
     get underflowS() {
       return underflowS;
     },
@@ -103,12 +127,12 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
       for (let i = from; i < to; i++) add(cOverN0DBHz[i], dtS);
     },
     exportState() {
-      return { binDB, minDBHz, timeS, underflowS };
+      return { binDB, minDBHz, timeS: this.timeS, underflowS };
     },
     takeState() {
       const lo = touchedHi < 0 ? 0 : touchedLo, hi = touchedHi < 0 ? -1 : touchedHi;
-      const st = { binDB, minDBHz, firstBin: lo, timeS: timeS.slice(lo, hi + 1), underflowS };
-      if (hi >= lo) timeS.fill(0, lo, hi + 1);
+      const st = { binDB, minDBHz, firstBin: lo, timeS: store.slice(lo - base, hi + 1 - base), underflowS };
+      if (hi >= lo) store.fill(0, lo - base, hi + 1 - base);
       underflowS = 0;
       touchedLo = bins; touchedHi = -1;
       return st;
@@ -119,7 +143,8 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
       if (st.binDB !== binDB || st.minDBHz !== minDBHz || lo < 0 || lo + n > bins || (st.firstBin === undefined && n !== bins)) {
         throw new Error('rate histogram: cannot merge a histogram with other bins');
       }
-      for (let i = 0; i < n; i++) timeS[lo + i] += st.timeS[i];
+      if (n > 0 && (lo < base || lo + n > base + store.length)) { grow(lo); grow(lo + n - 1); }
+      for (let i = 0; i < n; i++) store[lo + i - base] += st.timeS[i];
       underflowS += st.underflowS;
     },
   };
@@ -143,7 +168,8 @@ export function rateTrade(hist: RateHistogram, req: RateRequirement, ratesBps: r
     if (!(r > 0 && Number.isFinite(r))) throw new InputError(`rate finder candidate rates: ${r} b/s is not a rate (allowed finite numbers > 0)`);
   }
   const above = new Float64Array(hist.bins + 1);
-  for (let k = hist.bins - 1; k >= 0; k--) above[k] = above[k + 1] + hist.timeS[k];
+  const timeS = hist.timeS;
+  for (let k = hist.bins - 1; k >= 0; k--) above[k] = above[k + 1] + timeS[k];
   return ratesBps.map((bitRateBps) => {
     const need = closingCOverN0DBHz(bitRateBps, req);
     // First bin whose lower edge meets the threshold (binary search on the monotone edges).

@@ -67,6 +67,7 @@ export interface Sweeper {
 interface LinkRun {
   link: LinkSpec;
   engine: LinkEngine;
+  station: string;
   daily: DailyAccumulator[]; // per case
   mask: MaskHistogram[]; // per case
   rate: (RateHistogram | null)[]; // per case
@@ -123,18 +124,11 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   const satOrbit = orbit ?? createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
   const engines: LinkEngine[] = [];
   const stations: StationRun[] = layout.stations.map((st) => {
-    const name = st.entry.station.name;
     const links: LinkRun[] = st.links.map((link) => {
       const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length] });
       engines.push(engine);
-      // Accumulators live as long as the sweeper; each chunk takes (and empties) its share.
-      return {
-        link, engine,
-        daily: cases.map((c) => createDailyAccumulator({ startS, endS, link, weather: c.name, exportable: true })),
-        mask: cases.map((c) => createMaskHistogram({ station: name, link: link.name, weather: c.name })),
-        rate: cases.map((c) => (link.modcod.kind === 'fixed' ? createRateHistogram({ station: name, link: link.name, weather: c.name }) : null)),
-        envelope: [],
-      };
+      // Accumulators (made at the first chunk) live as long as the sweeper; each chunk takes (and empties) its share.
+      return { link, engine, station: st.entry.station.name, daily: [], mask: [], rate: [], envelope: [] };
     });
     const [rank0, rank1] = stationRank(scenario.network, st.entry.station.name, st.entry.priority);
     return {
@@ -152,9 +146,23 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     scOff: st.links.map(() => new Float64Array(WINDOW_STEPS)),
   };
   const policy = scenario.network;
-  const netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
-    startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: sat.name, exportable: true,
-  })));
+  let netDaily: DailyAccumulator[][] = [];
+  /** The accumulators, made when the first chunk is swept (a sweeper built only for its engines has none). */
+  const makeAccumulators = () => {
+    for (const st of stations) {
+      for (const lr of st.links) {
+        if (lr.daily.length > 0) continue;
+        lr.daily = cases.map((c) => createDailyAccumulator({ startS, endS, link: lr.link, weather: c.name, exportable: true }));
+        lr.mask = cases.map((c) => createMaskHistogram({ station: lr.station, link: lr.link.name, weather: c.name }));
+        lr.rate = cases.map((c) => (lr.link.modcod.kind === 'fixed' ? createRateHistogram({ station: lr.station, link: lr.link.name, weather: c.name, growable: true }) : null));
+      }
+    }
+    if (netDaily.length === 0) {
+      netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
+        startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: sat.name, exportable: true,
+      })));
+    }
+  };
 
   async function sweepChunk(items: readonly PlannedPass[], chunk: number, o: SweepOptions): Promise<ChunkPartial> {
     const seriesMax = o.seriesMaxPoints ?? 120;
@@ -165,6 +173,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       satIndex: layout.satIndex, chunk, passes: [], passLinks: { weather: [], strings: [], n: 0, text: new Int32Array(0), times: new Float64Array(0), ints: new Int32Array(0), caseNums: new Float64Array(0), caseInts: new Int32Array(0) }, series: [], daily: [], mask: [], rate: [], envelope: [],
       stationSteps: 0, gridTimes: 0, linkSteps: 0, sgp4Calls: 0,
     };
+    makeAccumulators();
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
     // Network contact = a maximal run of grid times with at least one station in view (a group).
     const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));

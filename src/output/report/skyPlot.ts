@@ -106,8 +106,8 @@ function skyTrack(p: SkyProjection, track: SkyTrack): string {
   if (n > 0) {
     const idx = Array.from({ length: n }, (_, k) => k).filter((k) => Number.isFinite(track.azimuthDeg[k]) && Number.isFinite(track.elevationDeg[k]));
     const st = seriesStyle(0, track.label ?? 'track');
-    const d = line<number>().x((k) => p.xy(track.azimuthDeg[k], track.elevationDeg[k])[0]).y((k) => p.xy(track.azimuthDeg[k], track.elevationDeg[k])[1])(idx);
-    body += tag('path', { d: roundPath(d ?? ''), fill: 'none', stroke: st.colour, 'stroke-width': 2.2, class: 'track' });
+    const d = line<number>().digits(1).x((k) => p.xy(track.azimuthDeg[k], track.elevationDeg[k])[0]).y((k) => p.xy(track.azimuthDeg[k], track.elevationDeg[k])[1])(idx);
+    body += tag('path', { d: d ?? '', fill: 'none', stroke: st.colour, 'stroke-width': 2.2, class: 'track' });
     if (idx.length > 0) {
       const [ax, ay] = p.xy(track.azimuthDeg[idx[0]], track.elevationDeg[idx[0]]);
       const [lx, ly] = p.xy(track.azimuthDeg[idx[idx.length - 1]], track.elevationDeg[idx[idx.length - 1]]);

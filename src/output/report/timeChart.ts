@@ -69,8 +69,9 @@ export function timeChart(series: PassSeries, pass: PassLinkSummary, metric: Tim
   series.cases.forEach((c, i) => {
     const st = seriesStyle(i, c.weather);
     const v = pick(c);
-    const d = line<number>().defined((k) => Number.isFinite(v[k]) && Number.isFinite(t[k])).x((k) => x(t[k])).y((k) => y(v[k]))(t.map((_, k) => k));
-    body += tag('path', { d: roundPath(d ?? ''), fill: 'none', stroke: st.colour, 'stroke-width': 2, 'stroke-dasharray': st.dash, 'clip-path': `url(#${clip})`, class: 'series' });
+    // d3's own rounding to 0.1 px (digits(1)) writes the same numbers roundPath would, without re-parsing the path.
+    const d = line<number>().digits(1).defined((k) => Number.isFinite(v[k]) && Number.isFinite(t[k])).x((k) => x(t[k])).y((k) => y(v[k]))(t.map((_, k) => k));
+    body += tag('path', { d: d ?? '', fill: 'none', stroke: st.colour, 'stroke-width': 2, 'stroke-dasharray': st.dash, 'clip-path': `url(#${clip})`, class: 'series' });
     // Direct label at the last finite point, clamped inside the frame.
     let last = v.length - 1;
     while (last >= 0 && !Number.isFinite(v[last])) last--;
