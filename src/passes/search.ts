@@ -20,21 +20,40 @@ export interface Extremum { timeS: number; value: number }
 
 const GOLDEN = (3 - Math.sqrt(5)) / 2;
 
+/** Options of findMaximum: known end values, and an early answer to "does the maximum reach `level`?". */
+export interface MaximumOptions {
+  fa?: number;
+  fb?: number;
+  /**
+   * With a bound on |df/dt| (`rate`, per second): stop as soon as the maximum
+   * provably stays below `level` (every point of the bracket is within its
+   * width of an evaluated point, so max ≤ best + rate × width). The value
+   * returned is then the best found, below `level`, not the maximum itself.
+   */
+  below?: { level: number; rate: number };
+}
+
 /**
  * Maximum of f on [a, b] by golden-section search (Kiefer 1953) until the
  * bracket is narrower than `toleranceS`; the end points are candidates too,
  * so a monotone f returns its larger end.
  */
-export function findMaximum(f: (t: number) => number, a: number, b: number, toleranceS: number): Extremum {
+export function findMaximum(f: (t: number) => number, a: number, b: number, toleranceS: number, opts: MaximumOptions = {}): Extremum {
   let lo = a; let hi = b;
   let x1 = lo + GOLDEN * (hi - lo); let f1 = f(x1);
   let x2 = hi - GOLDEN * (hi - lo); let f2 = f(x2);
+  const fa = opts.fa ?? f(a); const fb = opts.fb ?? f(b);
+  const below = opts.below;
+  const ends = fa > fb ? fa : fb;
   while (hi - lo > toleranceS) {
+    if (below) {
+      const top = f1 > f2 ? f1 : f2;
+      if ((top > ends ? top : ends) + below.rate * (hi - lo) < below.level) break;
+    }
     if (f1 >= f2) { hi = x2; x2 = x1; f2 = f1; x1 = lo + GOLDEN * (hi - lo); f1 = f(x1); }
     else { lo = x1; x1 = x2; f1 = f2; x2 = hi - GOLDEN * (hi - lo); f2 = f(x2); }
   }
   let best: Extremum = f1 >= f2 ? { timeS: x1, value: f1 } : { timeS: x2, value: f2 };
-  const fa = f(a); const fb = f(b);
   if (fa > best.value) best = { timeS: a, value: fa };
   if (fb > best.value) best = { timeS: b, value: fb };
   return best;
@@ -96,9 +115,11 @@ export interface CrossingEvent { t: number; dir: 1 | -1 }
  * sign, and a pair of roots around every sample extremum whose neighbours
  * share its side of zero but whose bracketed extremum crosses it. Pieces
  * [0, a), [a, b), …, [z, n) together give exactly the events of the whole grid.
+ * `rateBound` (an upper bound of |dg/dt| per second, default none) lets the
+ * extremum searches stop, or not start, where no crossing can hide.
  */
 export function scanEvents(
-  g: (t: number) => number, grid: ScanGrid, i0: number, i1: number, toleranceS: number,
+  g: (t: number) => number, grid: ScanGrid, i0: number, i1: number, toleranceS: number, rateBound = Infinity,
 ): { events: CrossingEvent[]; firstAbove: boolean } {
   if (!(toleranceS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
   const { n } = grid;
@@ -125,13 +146,16 @@ export function scanEvents(
     const below = gi < 0 && G[l] < 0 && G[r] < 0;
     const above = gi >= 0 && G[l] >= 0 && G[r] >= 0;
     if (below && gi >= G[l] && gi >= G[r] && (gi > G[l] || gi > G[r])) {
-      const m = findMaximum(g, T[l], T[r], toleranceS);
+      // With a bound on |dg/dt| the search stops as soon as the excursion provably stays below zero.
+      if (gi + rateBound * (T[r] - T[l]) < 0) continue;
+      const m = findMaximum(g, T[l], T[r], toleranceS, { fa: G[l], fb: G[r], below: { level: 0, rate: rateBound } });
       if (m.value >= 0) {
         events.push({ t: findRoot(g, T[l], m.timeS, G[l], m.value, toleranceS), dir: 1 });
         events.push({ t: findRoot(g, m.timeS, T[r], m.value, G[r], toleranceS), dir: -1 });
       }
     } else if (above && gi <= G[l] && gi <= G[r] && (gi < G[l] || gi < G[r])) {
-      const m = findMaximum(neg, T[l], T[r], toleranceS);
+      if (gi - rateBound * (T[r] - T[l]) >= 0) continue;
+      const m = findMaximum(neg, T[l], T[r], toleranceS, { fa: -G[l], fb: -G[r], below: { level: 0, rate: rateBound } });
       if (-m.value < 0) {
         events.push({ t: findRoot(g, T[l], m.timeS, G[l], -m.value, toleranceS), dir: -1 });
         events.push({ t: findRoot(g, m.timeS, T[r], -m.value, G[r], toleranceS), dir: 1 });
