@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { InputError } from '../errors.js';
 import { parseOmmJson } from './omm.js';
 import { parseTleText } from './tle.js';
@@ -18,13 +18,7 @@ export function parseElementsText(text: string, fileLabel: string): ElementSet[]
 
 /** Read and parse an element file (TLE/3LE or OMM JSON). */
 export function loadElementsFile(path: string): ElementSet[] {
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code ?? 'read error';
-    throw new InputError(`${path}: cannot read the elements file (${code}; allowed a readable TLE/3LE or OMM JSON file)`);
-  }
+  const text = readTextFile(path, 'elements file', 'a readable TLE/3LE or OMM JSON/XML file');
   return parseElementsText(text, path);
 }
 
@@ -42,4 +36,30 @@ export function epochWarning(elements: ElementSet, windowStartS: number): string
   const side = days > 0 ? 'after' : 'before';
   return `warning: ${elements.name} (${elements.catalogNumber}): window starts ${Math.abs(days).toFixed(1)} days ${side} the element epoch `
     + `(more than ${EPOCH_WARNING_DAYS} d; positions may be off by several km per day, from memory)`;
+}
+
+/** Words for the errno codes a person meets when a file cannot be read. */
+export const READ_FAILURES: Record<string, string> = {
+  ENOENT: 'not found',
+  EACCES: 'permission denied',
+  EPERM: 'permission denied',
+  EISDIR: 'is a folder, not a file',
+  ENOTDIR: 'a part of the path is not a folder',
+  ELOOP: 'too many symbolic links',
+  ENAMETOOLONG: 'the path is too long',
+  EIO: 'input/output error',
+};
+
+/**
+ * Read a text file for a loader, or throw one `InputError` line naming the
+ * file and why it cannot be read (a folder says so; so does a missing file).
+ */
+export function readTextFile(path: string, what: string, allowed: string): string {
+  try {
+    if (statSync(path).isDirectory()) throw Object.assign(new Error('folder'), { code: 'EISDIR' });
+    return readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code ?? 'read error';
+    throw new InputError(`${path}: cannot read the ${what}: ${READ_FAILURES[code] ?? code} (allowed ${allowed})`);
+  }
 }

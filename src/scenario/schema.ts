@@ -245,7 +245,8 @@ export const weatherSchema = z
   .meta(d('Weather cases: "clear" and/or annual exceedance percentages p in [0.001, 5] (P.618); default [clear]'));
 
 export const networkSchema = obj({
-  policy: z.enum(['best-margin', 'priority']).meta(d('Which station a satellite uses when several see it; default best-margin')),
+  policy: z.enum(['highest-rate', 'priority', 'best-margin'])
+    .meta(d('Which station a satellite uses when several see it: highest-rate (the station delivering the highest information rate, then the best margin; default) or priority (the first in order that closes). best-margin is the old name of highest-rate, accepted with a deprecation warning')),
   order: z.array(name('Station')).min(1).optional().meta(d('Station order for the priority policy (first = highest); default the station priorities')),
 }).meta({ title: 'Network policy' });
 

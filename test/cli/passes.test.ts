@@ -55,7 +55,7 @@ const cases: { name: string; args: string[]; where: RegExp }[] = [
   { name: 'eccentricity >= 1 in OMM JSON', args: ['--elements', badFiles.eccOmm, ...st], where: /ecc\.json:\d+:5: ECCENTRICITY is 1\.05 \(allowed 0 <= e < 1\)/ },
   { name: 'mean motion 0 (correct checksum)', args: ['--elements', badFiles.meanMotion, ...st], where: /n0\.tle:2:53: mean motion is 0/ },
   { name: 'broken JSON', args: ['--elements', badFiles.json, ...st], where: /broken\.json:3:3: not valid JSON/ },
-  { name: 'missing elements file', args: ['--elements', path.join(tmp, 'nope.tle'), ...st], where: /nope\.tle: cannot read the elements file \(ENOENT/ },
+  { name: 'missing elements file', args: ['--elements', path.join(tmp, 'nope.tle'), ...st], where: /nope\.tle: cannot read the elements file: not found \(allowed/ },
   { name: 'bad start date', args: ['--elements', DEMO, ...st, '--start', '2026-11-31T00:00:00Z'], where: /^passbudget: --start: not an ISO-8601 date-time/ },
   { name: 'bad end date', args: ['--elements', DEMO, ...st, '--end', 'tomorrow'], where: /^passbudget: --end: not an ISO-8601/ },
   { name: 'end before start', args: ['--elements', DEMO, ...st, '--start', '2026-11-21T00:00:00Z', '--end', '2026-11-20T00:00:00Z'], where: /^passbudget: --end: .* is not after the window start/ },

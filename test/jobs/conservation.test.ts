@@ -117,7 +117,7 @@ describe('network volume ≤ Σ station volumes (each second counted once)', () 
   });
 });
 
-describe('network volume recomputed step by step (best-margin policy)', () => {
+describe('network volume recomputed step by step (highest-rate policy)', () => {
   // Both stations run the same links (same bit rate, same mode table, same losses), so at
   // a grid time where several stations can take the satellite, the station with the most
   // margin over a common threshold is the one with the highest Es/N0, and so (for the
