@@ -9,6 +9,8 @@ import { budgetAtInstant, type InstantSpec } from '../budget/instant.js';
 import { explainRecord, formatExplainTable } from '../budget/explain.js';
 import { formatIsoUtc, parseIsoUtc } from '../orbit/time.js';
 import { loadScenario } from '../scenario/index.js';
+import { examples } from './examples.js';
+import { printNotices } from './notices.js';
 
 interface ExplainOptions {
   scenario: string;
@@ -37,6 +39,10 @@ export function register(program: Command): void {
     .option('--at-tca', 'with --pass: at the time of closest approach')
     .option('--at-elevation <deg>', 'with --pass: when the pass first reaches this elevation (rising side)')
     .option('--format <fmt>', 'table or json', 'table')
+    .addHelpText('after', examples([
+      ['passbudget explain --scenario fixtures/demo/scenario.yaml --satellite ORBILUX-3 --station Kaldfjell --link x-band --pass 2 --at-tca', 'every term of the X-band budget at the closest approach of pass 2'],
+      ['passbudget explain --scenario my.yaml --satellite SAT --station GS --link s-band --at 2026-11-21T10:15:00Z --format json', 'one instant, as a JSON record'],
+    ]))
     .action((opts: ExplainOptions) => runExplain(opts));
 }
 
@@ -64,6 +70,7 @@ function runExplain(o: ExplainOptions): void {
   if (!FORMATS.includes(o.format)) throw new InputError(`--format: unknown format ${JSON.stringify(o.format)} (allowed ${FORMATS.join(', ')})`);
   const instant = instantFrom(o);
   const scenario = loadScenario(o.scenario);
+  printNotices(scenario);
   const r = budgetAtInstant(scenario, { satellite: o.satellite, station: o.station, link: o.link }, instant);
   for (const w of r.warnings) process.stderr.write(`passbudget: ${w}\n`);
   const l = r.engine.link;

@@ -18,6 +18,7 @@ import { findPasses } from '../passes/find.js';
 import { passesCsv, passesJson, passesTable } from '../passes/table.js';
 import type { Pass } from '../passes/types.js';
 import { writeFileAtomic } from '../output/atomic.js';
+import { examples } from './examples.js';
 
 interface PassesOptions {
   elements: string;
@@ -39,7 +40,7 @@ export function register(program: Command): void {
   program
     .command('passes')
     .description('List passes (AOS, TCA, LOS, peak elevation) of each satellite over each station above a horizon mask')
-    .requiredOption('--elements <file>', 'TLE/3LE or OMM JSON file')
+    .requiredOption('--elements <file>', 'TLE/3LE, OMM JSON or OMM XML file')
     .option('--station <spec>', 'LAT,LON[,HEIGHT_M] or NAME=LAT,LON[,HEIGHT_M] (deg, m above WGS-84); repeatable', collect, [])
     .option('--station-name <name>', 'name for the --station of the same rank; repeatable', collect, [])
     .option('--start <iso>', 'window start, ISO-8601 (default: element epoch rounded down to the hour)')
@@ -49,6 +50,10 @@ export function register(program: Command): void {
     .option('--format <fmt>', 'table, csv or json', 'table')
     .option('--out <file>', 'write to this file (atomically) instead of stdout')
     .option('--tz <zone>', 'IANA time zone for the table times (default UTC)')
+    .addHelpText('after', examples([
+      ['passbudget passes --elements fixtures/demo/orbilux-3.tle --station Kaldfjell=68.40,17.25,120 --duration 48h --mask 5', 'two days of passes over one station, as a table'],
+      ['passbudget passes --elements sat.omm.xml --station 42.14,-3.12,980 --start 2026-11-21T00:00:00Z --duration 7d --format csv --out passes.csv', 'a week from an OMM XML file, as CSV'],
+    ]))
     .action((opts: PassesOptions) => runPasses(opts));
 }
 

@@ -23,6 +23,7 @@ import {
 } from './outputs.js';
 import { runPipelineParallel } from './workerRun.js';
 import { createProgress } from './progress.js';
+import { estimateRunSize } from './runSize.js';
 
 export interface RunOptions {
   /** Output folder; default the scenario's `output.dir`, else `out/<scenario name>` under the working directory. */
@@ -115,7 +116,9 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
   const outDir = defaultOutDir(scenario, opts.outDir);
   const writeSteps = opts.steps ?? scenario.output.steps;
   const warnings = elementWarnings(scenario);
-  const out = new AtomicOutputDir(outDir);
+  const size = estimateRunSize(scenario, { steps: writeSteps });
+  // Files other than steps.csv are small next to it; the estimate names steps.csv's share, the part that fills disks.
+  const out = new AtomicOutputDir(outDir, writeSteps ? { estimatedBytes: size.stepsCsvBytes, estimateNote: 'for steps.csv, estimated before the run' } : {});
   const progress = createProgress({ quiet: opts.quiet === true, label: scenario.name });
   try {
     // steps.csv rows are formatted by workerStepsCsv.ts (byte-identical to stepRow + csv-stringify, much faster);
@@ -144,7 +147,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
   } catch (err) {
     progress.done();
     out.discard();
-    throw err;
+    throw out.explain(err);
   }
 }
 
