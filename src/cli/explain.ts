@@ -9,6 +9,7 @@ import { budgetAtInstant, type InstantSpec } from '../budget/instant.js';
 import { explainRecord, formatExplainTable } from '../budget/explain.js';
 import { formatIsoUtc, parseIsoUtc } from '../orbit/time.js';
 import { loadScenario } from '../scenario/index.js';
+import { explainPassJson, explainTermsJson } from '../output/json.js';
 import { examples } from './examples.js';
 import { printNotices } from './notices.js';
 
@@ -75,7 +76,7 @@ function runExplain(o: ExplainOptions): void {
   for (const w of r.warnings) process.stderr.write(`passbudget: ${w}\n`);
   const l = r.engine.link;
   if (o.format === 'json') {
-    const rec = { ...explainRecord(r.engine, r.step), pass: r.pass, terms: r.lines };
+    const rec = { ...explainRecord(r.engine, r.step), pass: explainPassJson(r.pass), terms: explainTermsJson(r.lines) };
     process.stdout.write(`${JSON.stringify(rec, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? String(v) : v), 2)}\n`);
     return;
   }

@@ -14,6 +14,7 @@ import type { MaskFinding, MaskTradePoint, RunSummary } from '../analysis/types.
 import { epochWarning } from '../elements/index.js';
 import { AtomicOutputDir } from '../output/atomic.js';
 import { csvText } from '../output/csv.js';
+import { jsonText, summaryJson } from '../output/json.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
 import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
@@ -141,7 +142,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
     const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings })));
-    out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
+    out.writeFile('summary.json', jsonText(summaryJson(summary)));
     const files = out.commit();
     return { outDir, files, summary, pipeline, maskTrade: trade, maskFindings: findings };
   } catch (err) {
