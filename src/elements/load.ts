@@ -1,22 +1,36 @@
 import { readFileSync, statSync } from 'node:fs';
 import { InputError } from '../errors.js';
 import { parseOmmJson } from './omm.js';
+import { parseOmmXml } from './ommXml.js';
 import { parseTleText } from './tle.js';
 import type { ElementSet } from './types.js';
 
+export type ElementsFormat = 'tle' | 'omm-json' | 'omm-xml';
+
 /**
- * Parse element sets from text, detecting the format by content: text whose
- * first non-blank character is '{' or '[' is OMM JSON, anything else TLE/3LE.
+ * The format of an element text: by extension when it is `.xml` or `.json`,
+ * else by content (first non-blank character '<' is OMM XML, '{' or '[' OMM
+ * JSON, anything else TLE/3LE).
  */
+export function detectElementsFormat(text: string, fileLabel: string): ElementsFormat {
+  const ext = /\.([A-Za-z]+)$/.exec(fileLabel)?.[1]?.toLowerCase();
+  if (ext === 'xml') return 'omm-xml';
+  if (ext === 'json') return 'omm-json';
+  const first = text.trimStart()[0];
+  if (first === '<') return 'omm-xml';
+  return first === '{' || first === '[' ? 'omm-json' : 'tle';
+}
+
+/** Parse element sets from text (TLE/3LE, OMM JSON or OMM XML; see `detectElementsFormat`). */
 export function parseElementsText(text: string, fileLabel: string): ElementSet[] {
   const body = text.replace(/^\uFEFF/, '');
-  const first = body.trimStart()[0];
-  const sets = first === '{' || first === '[' ? parseOmmJson(body, fileLabel) : parseTleText(body, fileLabel);
-  if (sets.length === 0) throw new InputError(`${fileLabel}:1:1: no element sets found (allowed TLE/3LE lines or OMM JSON)`);
+  const format = detectElementsFormat(body, fileLabel);
+  const sets = format === 'omm-xml' ? parseOmmXml(body, fileLabel) : format === 'omm-json' ? parseOmmJson(body, fileLabel) : parseTleText(body, fileLabel);
+  if (sets.length === 0) throw new InputError(`${fileLabel}:1:1: no element sets found (allowed TLE/3LE lines, OMM JSON or OMM XML)`);
   return sets;
 }
 
-/** Read and parse an element file (TLE/3LE or OMM JSON). */
+/** Read and parse an element file (TLE/3LE, OMM JSON or OMM XML). */
 export function loadElementsFile(path: string): ElementSet[] {
   const text = readTextFile(path, 'elements file', 'a readable TLE/3LE or OMM JSON/XML file');
   return parseElementsText(text, path);

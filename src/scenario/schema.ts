@@ -187,7 +187,7 @@ export const linkSchema = obj({
 
 export const satelliteSchema = obj({
   name: name('Satellite'),
-  elements: z.string().min(1).meta(d('Element file (TLE/3LE or OMM JSON), relative to the scenario file')),
+  elements: z.string().min(1).meta(d('Element file (TLE/3LE, OMM JSON or OMM XML), relative to the scenario file')),
   select: z.string().min(1).optional().meta(d('Object name or catalogue number to pick when the file holds several element sets')),
   links: z.array(linkSchema).min(1),
 }).meta({ title: 'Satellite' });
