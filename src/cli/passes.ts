@@ -19,6 +19,7 @@ import { passesCsv, passesJson, passesTable } from '../passes/table.js';
 import type { Pass } from '../passes/types.js';
 import { writeFileAtomic } from '../output/atomic.js';
 import { examples } from './examples.js';
+import { propagationProblem } from '../scenario/propagation.js';
 
 interface PassesOptions {
   elements: string;
@@ -84,6 +85,10 @@ function runPasses(o: PassesOptions): void {
     if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new InputError(`--out: folder ${dir} does not exist (allowed a file in an existing folder)`);
   }
   const sets = selectNearestEpoch(all, startS);
+  for (const e of sets) {
+    const problem = propagationProblem(e, startS, endS);
+    if (problem) throw new InputError(`${o.elements}:${e.source.line}: ${e.name} cannot be propagated over the window: ${problem} (allowed: an element set SGP4 carries across the window)`);
+  }
   const propagators = sets.map(createPropagator);
   for (const e of sets) {
     const w = epochWarning(e, startS);

@@ -95,10 +95,19 @@ export function parseOmmEpoch(s: string): number | null {
   return null;
 }
 
+/**
+ * Plausibility bounds shared with the TLE parser. Faster than 20 rev/day is
+ * below the Earth's surface (a circular orbit at the surface makes about 17);
+ * |B*| above 1 per Earth radius makes SGP4's drag model throw the orbit out
+ * within days (published element sets stay far below 0.1).
+ */
+export const MAX_MEAN_MOTION_REV_PER_DAY = 20;
+export const MAX_ABS_BSTAR = 1;
+
 type Check = { key: string; required: boolean; lo?: number; hi?: number; hiOpen?: boolean; loOpen?: boolean; allowed: string };
 
 const NUMERIC: Check[] = [
-  { key: 'MEAN_MOTION', required: true, lo: 0, loOpen: true, allowed: 'revolutions per day, greater than 0' },
+  { key: 'MEAN_MOTION', required: true, lo: 0, loOpen: true, hi: MAX_MEAN_MOTION_REV_PER_DAY, allowed: `revolutions per day, greater than 0 and at most ${MAX_MEAN_MOTION_REV_PER_DAY}` },
   { key: 'ECCENTRICITY', required: true, lo: 0, hi: 1, hiOpen: true, allowed: '0 <= e < 1' },
   { key: 'INCLINATION', required: true, lo: 0, hi: 180, allowed: '0 to 180 deg' },
   { key: 'RA_OF_ASC_NODE', required: true, lo: 0, hi: 360, allowed: '0 to 360 deg' },
@@ -107,7 +116,7 @@ const NUMERIC: Check[] = [
   { key: 'NORAD_CAT_ID', required: true, lo: 0, hi: 339_999, allowed: 'a catalogue number 0 to 339999' },
   { key: 'ELEMENT_SET_NO', required: false, lo: 0, allowed: 'a whole number >= 0' },
   { key: 'REV_AT_EPOCH', required: false, lo: 0, allowed: 'a whole number >= 0' },
-  { key: 'BSTAR', required: true, allowed: 'a number (per Earth radius)' },
+  { key: 'BSTAR', required: true, lo: -MAX_ABS_BSTAR, hi: MAX_ABS_BSTAR, allowed: `a number per Earth radius, -${MAX_ABS_BSTAR} to ${MAX_ABS_BSTAR}` },
   { key: 'MEAN_MOTION_DOT', required: true, allowed: 'a number (rev/day^2)' },
   { key: 'MEAN_MOTION_DDOT', required: true, allowed: 'a number (rev/day^3)' },
 ];

@@ -15,7 +15,7 @@
  */
 import { SaxesParser } from 'saxes';
 import { InputError } from '../errors.js';
-import { elementSetFromOmm, lineColumnAt } from './omm.js';
+import { elementSetFromOmm, lineColumnAt, lineFinder } from './omm.js';
 import type { ElementSet } from './types.js';
 
 interface XmlElement {
@@ -101,6 +101,8 @@ export function parseOmmXml(text: string, file: string): ElementSet[] {
     const lc = lineColumnAt(text, el.offset);
     return `${file}:${lc.line}:${lc.column}`;
   };
+  // Line numbers by binary search: an <ndm> may hold thousands of <omm>.
+  const lineOf = lineFinder(text);
   const rootName = local(root.name);
   let omms: XmlElement[];
   if (rootName === 'omm') omms = [root];
@@ -149,7 +151,7 @@ export function parseOmmXml(text: string, file: string): ElementSet[] {
       where: (key) => where(found.get(key) ?? omm),
       entry: k + 1,
       file,
-      line: lineColumnAt(text, omm.offset).line,
+      line: lineOf(omm.offset),
       format: 'omm-xml',
     });
   });

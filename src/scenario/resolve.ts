@@ -10,6 +10,7 @@ import type { LinkEnd, LinkSpec, ModCodSpec, WeatherCase } from '../budget/types
 import type { HorizonMask, Station } from '../geometry/types.js';
 import { formatIsoUtc, parseDuration, parseIsoUtc } from '../orbit/time.js';
 import { resolveClimate, type ResolveContext } from './climate.js';
+import { propagationProblem } from './propagation.js';
 import {
   resolveAntenna, resolveGroundPointing, resolvePolarisation, resolveReceiver, resolveSpacecraftPointing, resolveTransmitter,
 } from './ends.js';
@@ -166,6 +167,8 @@ export function resolveScenarioInput(
       warnings.push(msg);
       notices.push(msg);
     }
+    const problem = propagationProblem(elements, startS, endS);
+    if (problem) src.fail([...at, 'elements'], `${sat.name} cannot be propagated over the window: ${problem} (allowed: an element set SGP4 carries across the window)`);
     satellites.push({ name: sat.name, elements, elementsFile: file });
     if (!elementFiles.includes(file)) elementFiles.push(file);
 
