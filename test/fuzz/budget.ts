@@ -13,3 +13,6 @@ export const COUNTS = FULL
 
 /** No document may take longer than this to accept or reject (ms). */
 export const MAX_MS = 2_000;
+
+/** Per-test time limit: the full counts take minutes. */
+export const TEST_TIMEOUT_MS = FULL ? 1_800_000 : 60_000;

@@ -6,64 +6,10 @@
  * and a day past its epoch: a finite state or a PropagationError (an
  * InputError), never NaN or a crash. Counts and seed: test/fuzz/budget.ts.
  */
-import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../src/errors.js';
-import { parseElementsText } from '../../src/elements/load.js';
-import { createPropagator } from '../../src/orbit/propagator.js';
-import { COUNTS, MAX_MS, SEED } from './budget.js';
-import { buildDoc, docPlanArb, mutateTle, mutateXml, textEditArb, applyTextEdits, tleEditArb, xmlEditArb } from './mutate.js';
-
-const TLES = ['fixtures/demo/orbilux-3.tle', 'fixtures/tle/orbilux-3-two-sets.tle', 'fixtures/tle/ccsds-omm-example-goes9.tle'].map((f) => readFileSync(f, 'utf8'));
-const OMM_JSON = JSON.parse(readFileSync('fixtures/tle/orbilux-3.omm.json', 'utf8'));
-const OMM_XML = ['fixtures/tle/orbilux-3.omm.xml', 'fixtures/tle/ccsds-omm-example-goes9.omm.xml'].map((f) => readFileSync(f, 'utf8'));
-
-export interface ElementsDoc { label: string; text: string; kind: string }
-
-export const elementsDocArb: fc.Arbitrary<ElementsDoc> = fc.oneof(
-  { weight: 4, arbitrary: fc.tuple(fc.nat({ max: TLES.length - 1 }), fc.array(tleEditArb, { minLength: 1, maxLength: 4 }), fc.boolean())
-    .map(([b, edits, fix]) => ({ label: 'fuzz.tle', text: mutateTle(TLES[b], edits, fix), kind: 'tle' })) },
-  { weight: 3, arbitrary: docPlanArb.map((plan) => ({ label: 'fuzz.json', text: buildDoc(OMM_JSON, { ...plan, format: 'json' }), kind: 'omm-json' })) },
-  { weight: 3, arbitrary: fc.tuple(fc.nat({ max: OMM_XML.length - 1 }), fc.array(xmlEditArb, { minLength: 1, maxLength: 4 }), fc.array(textEditArb, { maxLength: 2 }))
-    .map(([b, edits, text]) => ({ label: 'fuzz.xml', text: applyTextEdits(mutateXml(OMM_XML[b], edits), text), kind: 'omm-xml' })) },
-  { weight: 1, arbitrary: fc.tuple(fc.constantFrom('fuzz.txt', 'fuzz.xml', 'fuzz.json'), fc.string({ unit: 'binary', maxLength: 300 }))
-    .map(([label, text]) => ({ label, text, kind: 'random' })) },
-);
-
-export interface Outcome { kind: string; accepted: boolean; message?: string; ms: number }
-
-/** Load one document as the library does; throw (failing the property) on anything but acceptance or one InputError line. */
-export function checkElementsDoc(d: ElementsDoc): Outcome {
-  const t0 = performance.now();
-  let accepted = true;
-  let message: string | undefined;
-  try {
-    const sets = parseElementsText(d.text, d.label);
-    const r = new Float64Array(3);
-    const v = new Float64Array(3);
-    for (const e of sets.slice(0, 3)) {
-      try {
-        const p = createPropagator(e);
-        for (const dt of [3600, 86_400]) {
-          p.stateTeme(e.epochUnixS + dt, r, v);
-          if (![...r, ...v].every(Number.isFinite)) throw new Error(`non-finite state for ${e.name} at epoch + ${dt} s: ${[...r]}`);
-        }
-      } catch (err) {
-        if (!(err instanceof InputError)) throw err;
-      }
-    }
-  } catch (err) {
-    if (!(err instanceof InputError)) throw err;
-    accepted = false;
-    message = err.message;
-    if (message.includes('\n')) throw new Error(`two lines: ${message}`);
-    if (!message.startsWith(`${d.label}:`)) throw new Error(`not located at the file: ${message}`);
-  }
-  const ms = performance.now() - t0;
-  if (ms > MAX_MS) throw new Error(`${ms.toFixed(0)} ms for one document`);
-  return { kind: d.kind, accepted, message, ms };
-}
+import { COUNTS, SEED, TEST_TIMEOUT_MS } from './budget.js';
+import { checkElementsDoc, elementsDocArb, type Outcome } from './docs.js';
 
 describe(`element loaders, ${COUNTS.elements} generated and mutated documents (seed ${SEED})`, () => {
   it('accept, or reject with one located line; never another exception; never over 2 s', () => {
@@ -81,5 +27,5 @@ describe(`element loaders, ${COUNTS.elements} generated and mutated documents (s
     // The mutations reach both sides: some documents survive, most do not.
     for (const [k, v] of byKind) if (k !== 'random') expect(v.accepted, k).toBeGreaterThan(0);
     expect(outcomes.filter((o) => !o.accepted).length).toBeGreaterThan(outcomes.length / 2);
-  });
+  }, TEST_TIMEOUT_MS);
 });
