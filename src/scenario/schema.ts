@@ -232,11 +232,14 @@ export const stationSchema = obj({
 
 // ---------------------------------------------------------------- run options
 
+/** Shortest time step (s): the event search resolves AOS/LOS to 5 ms, a finer grid adds nothing but time. */
+export const MIN_STEP_S = 0.01;
+
 export const windowSchema = obj({
   start: z.string().min(1).meta(d('Start (ISO-8601; UTC when no offset)')),
   end: z.string().min(1).optional().meta(d('End (ISO-8601); give this or duration')),
   duration: z.union([z.string().min(1), pos()]).optional().meta(d('Duration like 90s, 45m, 36h, 7d, 2w, or seconds; give this or end')),
-  step_s: pos().max(3600).optional().meta(d('Time step inside passes (s); default 1')),
+  step_s: z.number().min(MIN_STEP_S).max(3600).optional().meta(d(`Time step inside passes (s), ${MIN_STEP_S} to 3600; default 1`)),
 }).meta({ title: 'Analysis window' });
 
 export const weatherSchema = z
