@@ -23,7 +23,7 @@ export function register(program: Command): void {
         try {
           writeFileAtomic(opts.out, text);
         } catch (e) {
-          throw new InputError(`--out: cannot write ${opts.out} (${(e as NodeJS.ErrnoException).code ?? 'write error'}; allowed a writable file path)`);
+          throw new InputError(`--out: cannot write ${opts.out} (${e instanceof Error ? e.message : String(e)}; allowed a writable file path)`);
         }
       }
       else process.stdout.write(text);

@@ -281,7 +281,7 @@ export function writeFileAtomic(path: string, data: string | Uint8Array): void {
     writeFileSync(tmp, data);
     renameSync(tmp, abs);
   } catch (err) {
-    rmSync(tmp, { force: true });
+    try { rmSync(tmp, { force: true }); } catch { /* the folder itself may be missing or a file */ }
     const code = writeFailureCode(err);
     if (!code) throw err;
     throw new OutputError(`${dirname(abs)}: cannot write ${basename(abs)}: ${WRITE_FAILURES[code]}`);
