@@ -50,6 +50,9 @@ function frequencyValidity(): Validity {
   };
 }
 
+/** Most bit rates the rate finder tries from a range. */
+export const MAX_RATE_CANDIDATES = 1000;
+
 /** Rate-finder candidates when the scenario gives none (b/s): common telemetry and payload rates. */
 export const DEFAULT_RATE_CANDIDATES_BPS = [1200, 2400, 4800, 9600, 19_200, 38_400, 57_600, 115_200, 250_000, 500_000, 1e6, 2e6, 5e6, 10e6, 20e6, 50e6, 100e6];
 
@@ -225,6 +228,10 @@ export function resolveScenarioInput(
     if (rf.range.per_decade === undefined) ctx.recordDefault({ path: 'rate_finder.range.per_decade', value: '10', reason: 'ten logarithmic steps per decade' });
     rateCandidatesBps = [];
     const n = Math.floor(perDecade * Math.log10(to_bps / from_bps) + 1e-9);
+    // A range like 5e-324 to 1e308 b/s has an infinite ratio: without this the list would grow until memory runs out.
+    if (!(n <= MAX_RATE_CANDIDATES)) {
+      src.fail(['rate_finder', 'range'], `${from_bps} to ${to_bps} b/s at ${perDecade} per decade gives ${Number.isFinite(n) ? n + 1 : 'endless'} rates (allowed at most ${MAX_RATE_CANDIDATES})`);
+    }
     for (let k = 0; k <= n; k++) rateCandidatesBps.push(Number((from_bps * 10 ** (k / perDecade)).toPrecision(6)));
     if (rateCandidatesBps[rateCandidatesBps.length - 1] < to_bps) rateCandidatesBps.push(to_bps);
   } else {

@@ -205,7 +205,8 @@ export const climateSchema = obj({
   temperature_c: num().min(-40).max(50).optional().meta(d('Surface temperature (°C), within the ITU-R P.453 range −40 to 50 °C')),
   temperature_k: num().min(233.15).max(323.15).optional().meta(d('Surface temperature (K), within the ITU-R P.453 range 233.15 to 323.15 K')),
   water_vapour_density_g_m3: nonNeg().max(50).optional().meta(d('Surface water-vapour density (g/m³)')),
-  water_vapour_content_kg_m2: nonNeg().max(100).optional().meta(d('Integrated water-vapour content V_t (kg/m²), preferred by P.676 Annex 2 when known')),
+  // P.676-12 Annex 2 takes T_ref = 14 ln(0.22 V_t / 2.38) + 3 °C: below 0.1 kg/m² it falls under -60 °C, and at 1e-8 below 0 K (NaN).
+  water_vapour_content_kg_m2: z.number().min(0.1).max(100).optional().meta(d('Integrated water-vapour content V_t (kg/m²), 0.1 to 100 (the driest air holds about 1), preferred by P.676 Annex 2 when known')),
   relative_humidity_pct: nonNeg().max(100).optional().meta(d('Surface relative humidity (%)')),
   n_wet: nonNeg().max(300).optional().meta(d('Wet term of the surface refractivity, N_wet (N-units, P.453)')),
   cloud_liquid_water_kg_m2: nonNeg().max(10).optional().meta(d('Columnar cloud liquid water for the exceedance cases (kg/m², P.840)')),

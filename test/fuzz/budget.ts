@@ -8,8 +8,8 @@ export const FULL = process.env.PASSBUDGET_FUZZ_FULL === '1';
 export const SEED = Number(process.env.PASSBUDGET_FUZZ_SEED ?? 20261121);
 
 export const COUNTS = FULL
-  ? { elements: 10_000, scenarios: 10_000, cliElements: 150, cliScenarios: 150 }
-  : { elements: 1_500, scenarios: 1_500, cliElements: 12, cliScenarios: 24 };
+  ? { elements: 10_000, scenarios: 10_000, cliElements: 150, cliScenarios: 150, runDocs: 3_000 }
+  : { elements: 1_500, scenarios: 1_500, cliElements: 12, cliScenarios: 24, runDocs: 150 };
 
 /** No document may take longer than this to accept or reject (ms). */
 export const MAX_MS = 2_000;

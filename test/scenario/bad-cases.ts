@@ -41,6 +41,8 @@ export const BAD_CASES: BadCase[] = [
   { name: 'end-before-start', edits: [{ from: 'duration: 2d', to: 'end: 2026-11-20T00:00:00Z' }], lineOf: 'end: 2026-11-20', path: 'window.end', contains: ['not after its start'] },
   { name: 'zero-step', edits: [{ from: 'step_s: 10', to: 'step_s: 0' }], lineOf: 'step_s: 0', path: 'window.step_s', contains: ['must be ≥ 0.01 (got 0)'] },
   { name: 'step-below-10-ms', edits: [{ from: 'step_s: 10', to: 'step_s: 0.000001' }], lineOf: 'step_s: 0.000001', path: 'window.step_s', contains: ['must be ≥ 0.01 (got 0.000001)'] },
+  { name: 'rate-range-endless', edits: [{ from: 'from_bps: 1000', to: 'from_bps: 5e-324' }], lineOf: '  range:', path: 'rate_finder.range', contains: ['endless rates', 'at most 1000'] },
+  { name: 'water-vapour-content-near-zero', edits: [{ from: 'water_vapour_density_g_m3: 9', to: 'water_vapour_content_kg_m2: 0.000000001' }], lineOf: 'water_vapour_content_kg_m2', path: 'stations[1].climate.water_vapour_content_kg_m2', contains: ['must be ≥ 0.1'] },
   { name: 'bad-iso-date', edits: [{ from: 'start: 2026-11-21T00:00:00Z', to: 'start: 2026-13-45T00:00:00Z' }], lineOf: 'start: 2026-13-45', path: 'window.start', contains: ['not an ISO-8601 date-time'] },
   { name: 'bad-duration', edits: [{ from: 'duration: 2d', to: 'duration: 2 days' }], lineOf: 'duration: 2 days', path: 'window.duration', contains: ['not a duration'] },
   { name: 'bad-zone-letter', edits: [{ from: 'rain_zone: K', to: 'rain_zone: I' }], lineOf: 'rain_zone: I', path: 'stations[1].climate.rain_zone', contains: ['must be one of A, B', '(got "I")'] },
