@@ -17,3 +17,15 @@ export class InputError extends Error {
 export class PropagationError extends InputError {
   override readonly name = 'InputError';
 }
+
+/**
+ * Writing the outputs failed for a reason outside the program (a full disk,
+ * a read-only or unwritable folder): one line naming the folder, what failed
+ * and, where known, the space needed. Exit code 1, but not an internal error.
+ */
+export class OutputError extends Error {
+  override readonly name = 'OutputError';
+  constructor(message: string) {
+    super(message.replace(/\s*\n\s*/g, ' '));
+  }
+}

@@ -1,7 +1,7 @@
 /**
  * Network arbitration: at each step, which one station of the network carries
  * the satellite, so network volume counts every step once.
- *   - `best-margin` (default): the usable candidate that delivers the highest
+ *   - `highest-rate` (default): the usable candidate that delivers the highest
  *     information rate, and among equal rates the largest margin; ties go to
  *     the higher priority (lower number), then to the first listed. Rate comes
  *     first because an adaptive link's margin is measured against each
@@ -58,7 +58,7 @@ export function networkOutranks(
 /** Index of the chosen candidate, or −1 when none is usable. */
 export function chooseNetworkStation(
   candidates: readonly NetworkCandidate[],
-  policy: NetworkPolicy = { kind: 'best-margin' },
+  policy: NetworkPolicy = { kind: 'highest-rate' },
 ): number {
   let best = -1;
   let br0 = 0, br1 = 0;

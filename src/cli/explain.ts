@@ -9,6 +9,9 @@ import { budgetAtInstant, type InstantSpec } from '../budget/instant.js';
 import { explainRecord, formatExplainTable } from '../budget/explain.js';
 import { formatIsoUtc, parseIsoUtc } from '../orbit/time.js';
 import { loadScenario } from '../scenario/index.js';
+import { explainPassJson, explainTermsJson } from '../output/json.js';
+import { examples } from './examples.js';
+import { printNotices } from './notices.js';
 
 interface ExplainOptions {
   scenario: string;
@@ -37,6 +40,10 @@ export function register(program: Command): void {
     .option('--at-tca', 'with --pass: at the time of closest approach')
     .option('--at-elevation <deg>', 'with --pass: when the pass first reaches this elevation (rising side)')
     .option('--format <fmt>', 'table or json', 'table')
+    .addHelpText('after', examples([
+      ['passbudget explain --scenario fixtures/demo/scenario.yaml --satellite ORBILUX-3 --station Kaldfjell --link x-band --pass 2 --at-tca', 'every term of the X-band budget at the closest approach of pass 2'],
+      ['passbudget explain --scenario my.yaml --satellite SAT --station GS --link s-band --at 2026-11-21T10:15:00Z --format json', 'one instant, as a JSON record'],
+    ]))
     .action((opts: ExplainOptions) => runExplain(opts));
 }
 
@@ -64,11 +71,12 @@ function runExplain(o: ExplainOptions): void {
   if (!FORMATS.includes(o.format)) throw new InputError(`--format: unknown format ${JSON.stringify(o.format)} (allowed ${FORMATS.join(', ')})`);
   const instant = instantFrom(o);
   const scenario = loadScenario(o.scenario);
+  printNotices(scenario);
   const r = budgetAtInstant(scenario, { satellite: o.satellite, station: o.station, link: o.link }, instant);
   for (const w of r.warnings) process.stderr.write(`passbudget: ${w}\n`);
   const l = r.engine.link;
   if (o.format === 'json') {
-    const rec = { ...explainRecord(r.engine, r.step), pass: r.pass, terms: r.lines };
+    const rec = { ...explainRecord(r.engine, r.step), pass: explainPassJson(r.pass), terms: explainTermsJson(r.lines) };
     process.stdout.write(`${JSON.stringify(rec, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? String(v) : v), 2)}\n`);
     return;
   }

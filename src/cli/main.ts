@@ -7,7 +7,9 @@
 import { realpathSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
-import { InputError } from '../errors.js';
+import { InputError, OutputError } from '../errors.js';
+import { examples } from './examples.js';
+import { softwareVersions } from '../jobs/outputs.js';
 import { commands } from './commands.js';
 
 export async function main(argv: string[]): Promise<number> {
@@ -15,8 +17,13 @@ export async function main(argv: string[]): Promise<number> {
     .description('Pass-by-pass link margin simulator for satellite radio links (planning estimates)')
     .exitOverride()
     .configureOutput({ writeErr: (s) => process.stderr.write(s) })
-    .showHelpAfterError(false);
+    .showHelpAfterError(false)
+    .version(ownVersion(), '-V, --version', 'print the passbudget version');
   for (const register of commands) register(program);
+  program.addHelpText('after', examples([
+    ['passbudget run fixtures/demo/scenario.yaml', 'the demo scenario: budgets, passes, daily volumes and report in out/orbilux-demo/'],
+    ['passbudget passes --elements fixtures/demo/orbilux-3.tle --station 68.40,17.25,120', 'two days of passes over one station'],
+  ]));
   try {
     await program.parseAsync(argv, { from: 'user' });
     return 0;
@@ -34,10 +41,18 @@ export function reportError(err: unknown): number {
     process.stderr.write(`passbudget: ${err.message}\n`);
     return 2;
   }
+  if (err instanceof OutputError) {
+    process.stderr.write(`passbudget: ${err.message}\n`);
+    return 1;
+  }
   const e = err as Error;
   process.stderr.write(`passbudget: internal error: ${e?.message ?? String(err)}\n`);
   if (process.env.PASSBUDGET_DEBUG) process.stderr.write(`${e?.stack ?? ''}\n`);
   return 1;
+}
+
+function ownVersion(): string {
+  return softwareVersions().find((s) => s.name === 'passbudget')?.version ?? 'unknown';
 }
 
 function invokedDirectly(): boolean {

@@ -18,6 +18,8 @@ import { createOrbit, findPasses } from '../passes/find.js';
 import { passesCsv, passesJson, passesTable } from '../passes/table.js';
 import type { Pass } from '../passes/types.js';
 import { writeFileAtomic } from '../output/atomic.js';
+import { examples } from './examples.js';
+import { propagationProblem } from '../scenario/propagation.js';
 
 interface PassesOptions {
   elements: string;
@@ -40,7 +42,7 @@ export function register(program: Command): void {
   program
     .command('passes')
     .description('List passes (AOS, TCA, LOS, peak elevation) of each satellite over each station above a horizon mask')
-    .requiredOption('--elements <file>', 'TLE/3LE or OMM JSON file')
+    .requiredOption('--elements <file>', 'TLE/3LE, OMM JSON or OMM XML file')
     .option('--station <spec>', 'LAT,LON[,HEIGHT_M] or NAME=LAT,LON[,HEIGHT_M] (deg, m above WGS-84); repeatable', collect, [])
     .option('--station-name <name>', 'name for the --station of the same rank; repeatable', collect, [])
     .option('--start <iso>', 'window start, ISO-8601 (default: element epoch rounded down to the hour)')
@@ -51,6 +53,10 @@ export function register(program: Command): void {
     .option('--out <file>', 'write to this file (atomically) instead of stdout')
     .option('--tz <zone>', 'IANA time zone for the table times (default UTC)')
     .option('--exact-orbit', 'SGP4 at every instant instead of interpolating between SGP4 nodes (slower; a check)')
+    .addHelpText('after', examples([
+      ['passbudget passes --elements fixtures/demo/orbilux-3.tle --station Kaldfjell=68.40,17.25,120 --duration 48h --mask 5', 'two days of passes over one station, as a table'],
+      ['passbudget passes --elements sat.omm.xml --station 42.14,-3.12,980 --start 2026-11-21T00:00:00Z --duration 7d --format csv --out passes.csv', 'a week from an OMM XML file, as CSV'],
+    ]))
     .action((opts: PassesOptions) => runPasses(opts));
 }
 
@@ -81,6 +87,10 @@ function runPasses(o: PassesOptions): void {
     if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new InputError(`--out: folder ${dir} does not exist (allowed a file in an existing folder)`);
   }
   const sets = selectNearestEpoch(all, startS);
+  for (const e of sets) {
+    const problem = propagationProblem(e, startS, endS);
+    if (problem) throw new InputError(`${o.elements}:${e.source.line}: ${e.name} cannot be propagated over the window: ${problem} (allowed: an element set SGP4 carries across the window)`);
+  }
   const propagators = sets.map(createPropagator);
   for (const e of sets) {
     const w = epochWarning(e, startS);

@@ -3,6 +3,8 @@ import { InputError } from '../errors.js';
 import { formatRateResult, rateScenario } from '../jobs/finders.js';
 import { loadScenario } from '../scenario/index.js';
 import { withExactOrbit } from './run.js';
+import { examples } from './examples.js';
+import { printNotices } from './notices.js';
 
 /** `--rates 9600,19200` or `--rates 1000:1000000:13` (13 log-spaced rates from 1 kb/s to 1 Mb/s). */
 export function parseRates(text: string): number[] {
@@ -27,9 +29,14 @@ export function register(program: Command): void {
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--quiet', 'no progress bar and no table')
     .option('--exact-orbit', 'SGP4 at every step instead of interpolating between SGP4 nodes (slower; a check)')
+    .addHelpText('after', examples([
+      ['passbudget rate fixtures/demo/scenario.yaml', 'daily volume against the scenario\'s bit rates; rate.csv'],
+      ['passbudget rate my.yaml --rates 1000:4000000:25', '25 log-spaced rates from 1 kb/s to 4 Mb/s'],
+    ]))
     .action(async (file: string, o: { rates?: string; out?: string; quiet?: boolean; exactOrbit?: boolean }) => {
       const ratesBps = o.rates !== undefined ? parseRates(o.rates) : undefined;
       const scenario = withExactOrbit(loadScenario(file, { outDir: o.out }), o.exactOrbit);
+      printNotices(scenario);
       const r = await rateScenario(scenario, { outDir: o.out, quiet: o.quiet, ratesBps });
       if (!o.quiet) process.stdout.write(`${formatRateResult(r)}\n`);
     });

@@ -1,8 +1,14 @@
 import type { Command } from 'commander';
 import { loadScenario } from '../scenario/index.js';
-import { formatRunSummary, runScenario } from '../jobs/run.js';
-import { checkWorkers } from '../sweep/parallel.js';
 import type { ResolvedScenario } from '../scenario/types.js';
+import { defaultOutDir, formatRunSummary, runScenario } from '../jobs/run.js';
+import { estimateRunSize, formatRunSize } from '../jobs/runSize.js';
+import { checkWorkers } from '../sweep/parallel.js';
+import { formatBytes, freeBytes } from '../output/atomic.js';
+import { printNotices } from './notices.js';
+import { examples } from './examples.js';
+import { dirname } from 'node:path';
+import { existsSync } from 'node:fs';
 
 /** The scenario with `exact_orbit` switched on when the flag asks for it. */
 export function withExactOrbit(scenario: ResolvedScenario, flag: boolean | undefined): ResolvedScenario {
@@ -16,13 +22,29 @@ export function register(program: Command): void {
     .argument('<scenario>', 'scenario file (YAML or JSON)')
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--no-steps', 'do not write steps.csv')
-    .option('--quiet', 'no progress bar and no summary table')
+    .option('--quiet', 'no run-size line, progress bar or summary table')
     .option('--workers <n>', 'worker threads for the sweep (default 1; outputs are identical for any count)')
     .option('--exact-orbit', 'SGP4 at every step instead of interpolating between SGP4 nodes (slower; a check)')
+    .addHelpText('after', examples([
+      ['passbudget run fixtures/demo/scenario.yaml', 'the demo: 7 days, three stations, into out/orbilux-demo/'],
+      ['passbudget run my.yaml --out results/week48 --no-steps --workers 2', 'no per-step file, two worker threads'],
+    ]))
     .action(async (file: string, o: { out?: string; steps?: boolean; quiet?: boolean; workers?: string; exactOrbit?: boolean }) => {
       const workers = o.workers === undefined ? 1 : checkWorkers(o.workers);
       const scenario = withExactOrbit(loadScenario(file, { outDir: o.out }), o.exactOrbit);
-      const result = await runScenario(scenario, { outDir: o.out, quiet: o.quiet, steps: o.steps === false ? false : undefined, workers });
+      printNotices(scenario);
+      const steps = o.steps === false ? false : undefined;
+      if (!o.quiet) {
+        const size = estimateRunSize(scenario, { steps });
+        process.stderr.write(`passbudget: ${formatRunSize(size, scenario.window.stepS)}\n`);
+        let dir = defaultOutDir(scenario, o.out);
+        while (!existsSync(dir) && dirname(dir) !== dir) dir = dirname(dir);
+        const free = freeBytes(dir);
+        if (size.writeSteps && free !== null && size.stepsCsvBytes > free) {
+          process.stderr.write(`passbudget: warning: steps.csv may not fit: about ${formatBytes(size.stepsCsvBytes)} estimated, ${formatBytes(free)} free at ${dir} (use --no-steps, a shorter window or a longer step)\n`);
+        }
+      }
+      const result = await runScenario(scenario, { outDir: o.out, quiet: o.quiet, steps, workers });
       if (!o.quiet) process.stdout.write(`${formatRunSummary(result)}\n`);
     });
 }

@@ -5,3 +5,4 @@ export * from './tle.js';
 export * from './omm.js';
 export * from './load.js';
 export * from './select.js';
+export * from './ommXml.js';

@@ -7,6 +7,7 @@
 import { InputError } from '../errors.js';
 import { catalogNumberValue } from './catalog.js';
 import { tleChecksum } from './checksum.js';
+import { MAX_ABS_BSTAR, MAX_MEAN_MOTION_REV_PER_DAY } from './omm.js';
 import type { ElementSet } from './types.js';
 
 const TLE_LENGTH = 69;
@@ -94,6 +95,7 @@ function parsePair(c1: Ctx, c2: Ctx, name: string | null, file: string, firstLin
   const ndot = decimal(c1, 34, 43, 'mean motion first derivative', -1, 1);
   const nddot = impliedExp(c1, 45, 'mean motion second derivative');
   const bstar = impliedExp(c1, 54, 'B* drag term');
+  if (Math.abs(bstar) > MAX_ABS_BSTAR) fail(c1, 54, `B* drag term is ${bstar}`, `-${MAX_ABS_BSTAR} to ${MAX_ABS_BSTAR} per Earth radius`);
   const eph = field(c1, 63, 63);
   if (!/^[0-9 ]$/.test(eph)) fail(c1, 63, `ephemeris type is ${JSON.stringify(eph)}`, 'a digit or blank');
   const elset = integerOrBlank(c1, 65, 68, 'element set number');
@@ -108,7 +110,7 @@ function parsePair(c1: Ctx, c2: Ctx, name: string | null, file: string, firstLin
   const nText = field(c2, 53, 63);
   if (!DECIMAL.test(nText)) fail(c2, 53, `mean motion is not a number (got ${JSON.stringify(nText)})`, 'revolutions per day in columns 53-63');
   const n = Number(nText);
-  if (!(n > 0)) fail(c2, 53, `mean motion is ${n}`, 'greater than 0 revolutions per day');
+  if (!(n > 0 && n <= MAX_MEAN_MOTION_REV_PER_DAY)) fail(c2, 53, `mean motion is ${n}`, `greater than 0 and at most ${MAX_MEAN_MOTION_REV_PER_DAY} revolutions per day`);
   const rev = integerOrBlank(c2, 64, 68, 'revolution number');
 
   return {

@@ -14,6 +14,7 @@ import type { MaskFinding, MaskTradePoint, RateTradePoint } from '../analysis/ty
 import { InputError } from '../errors.js';
 import { writeFilesAtomic } from '../output/atomic.js';
 import { csvText, fmt } from '../output/csv.js';
+import { jsonText, maskJson } from '../output/json.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { defaultOutDir, maskResults } from './run.js';
 import { createProgress } from './progress.js';
@@ -43,10 +44,7 @@ export async function maskScenario(scenario: ResolvedScenario, opts: FinderOptio
     ['mask.csv', await csvText(MASK_COLUMNS, trade.map((t) => [
       t.station, t.link, t.weather, t.maskDeg, fmt(bitsToMegabytes(t.dailyVolumeBits), 6), fmt(t.usableMinutesPerDay, 3),
     ]))],
-    ['mask.json', `${JSON.stringify({ scenario: scenario.name, fraction, findings: findings.map((f) => ({
-      station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, mask_deg: f.maskDeg,
-      mount_limited_excluded_s: f.mountLimitedExcludedS ?? 0,
-    })) }, null, 2)}\n`],
+    ['mask.json', jsonText(maskJson(scenario.name, fraction, findings))],
   ]);
   return { outDir, files, trade, findings };
 }

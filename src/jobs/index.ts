@@ -2,3 +2,4 @@ export { runScenario, formatRunSummary, defaultOutDir, type RunOptions, type Run
 export { maskScenario, rateScenario, formatMaskResult, formatRateResult, type MaskResult, type RateResult } from './finders.js';
 export { rebuildReport, loadReportInput } from './report.js';
 export { stepColumns, PASS_COLUMNS, DAILY_COLUMNS, CAUTIONS, MODELS_USED } from './outputs.js';
+export { estimateRunSize, formatRunSize, timeInViewFraction, type RunSize } from './runSize.js';

@@ -7,10 +7,11 @@ import { createReadStream, existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parse } from 'csv-parse';
 import { parse as parseSync } from 'csv-parse/sync';
-import type { DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradePoint, RunSummary, Verdict } from '../analysis/types.js';
+import type { DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradePoint, Verdict } from '../analysis/types.js';
 import { megabytesToBits } from '../analysis/units.js';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../output/atomic.js';
+import { maskFindingsFromJson, summaryFromJson } from '../output/json.js';
 import { renderReport, REPORT_MAX_PASS_SECTIONS } from '../output/report/index.js';
 import type { LinkEnvelope, PassSeries, ReportInput } from '../output/report/types.js';
 import { envelopeAdd, ENVELOPE_BINS, type StationLinkEnvelope } from '../sweep/types.js';
@@ -136,7 +137,7 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
   if (!existsSync(join(dir, 'summary.json'))) {
     throw new InputError(`${dirIn}: no summary.json here (allowed an output folder written by passbudget run)`);
   }
-  const summary = readJson<RunSummary>(join(dir, 'summary.json'));
+  const summary = summaryFromJson(readJson<unknown>(join(dir, 'summary.json')), join(dir, 'summary.json'));
   const passes = passesFromJson(readJson<PassJson[]>(join(dir, 'passes.json')));
   const daily = dailyFromCsv(readCsv(join(dir, 'daily.csv')));
   const steps = existsSync(join(dir, 'steps.csv')) ? await fromSteps(join(dir, 'steps.csv'), passes, summary.weatherCases) : null;
@@ -151,10 +152,7 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
     }));
   }
   if (existsSync(join(dir, 'mask.json'))) {
-    const m = readJson<{ findings: { station: string; link: string; weather: string; fraction: number; mask_deg: number | null; mount_limited_excluded_s?: number }[] }>(join(dir, 'mask.json'));
-    maskFindings = m.findings.map((f) => ({
-      station: f.station, link: f.link, weather: f.weather, fraction: f.fraction, maskDeg: f.mask_deg, mountLimitedExcludedS: f.mount_limited_excluded_s,
-    }));
+    maskFindings = maskFindingsFromJson(readJson<unknown>(join(dir, 'mask.json')), join(dir, 'mask.json'));
   }
   if (existsSync(join(dir, 'rate.csv'))) {
     rateTrade = readCsv(join(dir, 'rate.csv')).map((r) => ({

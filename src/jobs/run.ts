@@ -14,6 +14,7 @@ import type { MaskFinding, MaskTradePoint, PassLinkSummary, RunSummary } from '.
 import { epochWarning } from '../elements/index.js';
 import { AtomicOutputDir } from '../output/atomic.js';
 import { csvText } from '../output/csv.js';
+import { jsonText, summaryJson } from '../output/json.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
 import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
@@ -23,6 +24,7 @@ import {
 } from './outputs.js';
 import { runPipelineParallel } from '../sweep/parallel.js';
 import { createProgress } from './progress.js';
+import { estimateRunSize } from './runSize.js';
 
 export interface RunOptions {
   /** Output folder; default the scenario's `output.dir`, else `out/<scenario name>` under the working directory. */
@@ -118,7 +120,9 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
   const outDir = defaultOutDir(scenario, opts.outDir);
   const writeSteps = opts.steps ?? scenario.output.steps;
   const warnings = elementWarnings(scenario);
-  const out = new AtomicOutputDir(outDir);
+  const size = estimateRunSize(scenario, { steps: writeSteps });
+  // Files other than steps.csv are small next to it; the estimate names steps.csv's share, the part that fills disks.
+  const out = new AtomicOutputDir(outDir, writeSteps ? { estimatedBytes: size.stepsCsvBytes, estimateNote: 'for steps.csv, estimated before the run' } : {});
   const progress = createProgress({ quiet: opts.quiet === true, label: scenario.name });
   try {
     // steps.csv rows are formatted by output/stepsCsv.ts (byte-identical to stepRow + csv-stringify, much faster);
@@ -145,14 +149,14 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
     const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
-    out.writeFile('summary.json', `${JSON.stringify(summary, null, 2)}\n`);
+    out.writeFile('summary.json', jsonText(summaryJson(summary)));
     const files = out.commit();
     if (opts.timings) opts.timings.outputsS += (performance.now() - outputsT0) / 1000;
     return { outDir, files, summary, pipeline, maskTrade: trade, maskFindings: findings };
   } catch (err) {
     progress.done();
     out.discard();
-    throw err;
+    throw out.explain(err);
   }
 }
 

@@ -3,7 +3,8 @@
  * validation, defaults and resolution into the plain objects the engine uses.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
+import { READ_FAILURES } from '../elements/load.js';
 import path from 'node:path';
 import { InputError } from '../errors.js';
 import { resolveScenarioInput } from './resolve.js';
@@ -32,9 +33,11 @@ export function parseScenarioText(text: string, fileLabel: string, baseDir: stri
 export function loadScenario(file: string, opts: { outDir?: string } = {}): ResolvedScenario {
   let bytes: Buffer;
   try {
+    if (statSync(file).isDirectory()) throw Object.assign(new Error('folder'), { code: 'EISDIR' });
     bytes = readFileSync(file);
   } catch (e) {
-    throw new InputError(`${file}: cannot read the scenario file (${(e as NodeJS.ErrnoException).code ?? 'read error'}; allowed a readable YAML or JSON file)`);
+    const code = (e as NodeJS.ErrnoException).code ?? 'read error';
+    throw new InputError(`${file}: cannot read the scenario file: ${READ_FAILURES[code] ?? code} (allowed a readable YAML or JSON file)`);
   }
   const abs = path.resolve(file);
   return resolveText(bytes.toString('utf8'), bytes, file, path.dirname(abs), abs, opts);

@@ -8,8 +8,9 @@ import type { ElementSet } from '../elements/types.js';
 import { loadElementsFile } from '../elements/index.js';
 import type { LinkEnd, LinkSpec, ModCodSpec, WeatherCase } from '../budget/types.js';
 import type { HorizonMask, Station } from '../geometry/types.js';
-import { parseDuration, parseIsoUtc } from '../orbit/time.js';
+import { formatIsoUtc, parseDuration, parseIsoUtc } from '../orbit/time.js';
 import { resolveClimate, type ResolveContext } from './climate.js';
+import { propagationProblem } from './propagation.js';
 import {
   resolveAntenna, resolveGroundPointing, resolvePolarisation, resolveReceiver, resolveSpacecraftPointing, resolveTransmitter,
 } from './ends.js';
@@ -20,6 +21,18 @@ import {
 import type { LinkInput, ScenarioInput, StationInput, TerminalInput } from './schema.js';
 import { formatPath, type Path, type ScenarioSource } from './source.js';
 import type { AppliedDefault, NetworkPolicy, ResolvedScenario, ScenarioSatellite, ScenarioStation } from './types.js';
+
+/** A window reaching further than this from an element epoch (days) is refused: SGP4 means nothing there. */
+export const EPOCH_REFUSE_DAYS = 366;
+/** ... and warned about past this many days. */
+export const EPOCH_WARN_DAYS = 30;
+
+/** How far the window reaches from the epoch (days), at its end (after the epoch) or its start (before it). */
+export function epochReach(elements: ElementSet, startS: number, endS: number): { days: number; side: 'ends' | 'starts' } {
+  const after = (endS - elements.epochUnixS) / 86_400;
+  const before = (elements.epochUnixS - startS) / 86_400;
+  return after >= before ? { days: after, side: 'ends' } : { days: before, side: 'starts' };
+}
 
 /** Lowest carrier frequency accepted (GHz): below ~30 MHz the ionosphere reflects (common practice, from memory). */
 export const MIN_FREQUENCY_GHZ = 0.03;
@@ -36,6 +49,9 @@ function frequencyValidity(): Validity {
     externalNoiseMHz: P372_VALIDITY.frequencyMHz,
   };
 }
+
+/** Most bit rates the rate finder tries from a range. */
+export const MAX_RATE_CANDIDATES = 1000;
 
 /** Rate-finder candidates when the scenario gives none (b/s): common telemetry and payload rates. */
 export const DEFAULT_RATE_CANDIDATES_BPS = [1200, 2400, 4800, 9600, 19_200, 38_400, 57_600, 115_200, 250_000, 500_000, 1e6, 2e6, 5e6, 10e6, 20e6, 50e6, 100e6];
@@ -68,6 +84,8 @@ export function resolveScenarioInput(
 ): ResolvedWithInputs {
   const defaultsApplied: AppliedDefault[] = [];
   const warnings: string[] = [];
+  /** Warnings the CLI also prints on stderr at once (each is in `warnings` too). */
+  const notices: string[] = [];
   const ctx: ResolveContext = {
     fail: (p, m) => src.fail(p, m),
     // A terminal used by several links records its defaults once.
@@ -121,8 +139,11 @@ export function resolveScenarioInput(
   input.satellites.forEach((sat, si) => {
     const at: Path = ['satellites', si];
     const file = path.resolve(opts.baseDir, sat.elements);
-    if (!existsSync(file) || !statSync(file).isFile()) {
-      src.fail([...at, 'elements'], `element file not found: ${file} (allowed: a TLE/3LE or OMM JSON file, path relative to the scenario file)`);
+    if (!existsSync(file)) {
+      src.fail([...at, 'elements'], `element file not found: ${file} (allowed: a TLE/3LE or OMM JSON/XML file, path relative to the scenario file)`);
+    }
+    if (!statSync(file).isFile()) {
+      src.fail([...at, 'elements'], `${file} is a ${statSync(file).isDirectory() ? 'folder' : 'special file'}, not an element file (allowed: a TLE/3LE or OMM JSON/XML file, path relative to the scenario file)`);
     }
     try {
       readFileSync(file);
@@ -140,6 +161,17 @@ export function resolveScenarioInput(
     const elements = chosen as ElementSet;
     const ageDays = (startS - elements.epochUnixS) / 86_400;
     if (Math.abs(ageDays) > 7) warnings.push(`${formatPath([...at, 'elements'])}: the element epoch is ${ageDays.toFixed(1)} days from the window start; SGP4 errors grow with that`);
+    const reach = epochReach(elements, startS, endS);
+    if (reach.days > EPOCH_REFUSE_DAYS) {
+      src.fail(['window'], `the window ${reach.side} ${reach.days.toFixed(1)} days ${reach.side === 'ends' ? 'after' : 'before'} the element epoch of ${sat.name} (${formatIsoUtc(elements.epochUnixS)}); SGP4 from one element set means nothing that far out (allowed: a window within ${EPOCH_REFUSE_DAYS} days of each satellite's element epoch; use newer elements or a shorter window)`);
+    }
+    if (reach.days > EPOCH_WARN_DAYS) {
+      const msg = `window: ${reach.side} ${reach.days.toFixed(1)} days ${reach.side === 'ends' ? 'after' : 'before'} the element epoch of ${sat.name}; SGP4 positions from one element set drift by kilometres per day (from memory), so results past about ${EPOCH_WARN_DAYS} days are rough`;
+      warnings.push(msg);
+      notices.push(msg);
+    }
+    const problem = propagationProblem(elements, startS, endS);
+    if (problem) src.fail([...at, 'elements'], `${sat.name} cannot be propagated over the window: ${problem} (allowed: an element set SGP4 carries across the window)`);
     satellites.push({ name: sat.name, elements, elementsFile: file });
     if (!elementFiles.includes(file)) elementFiles.push(file);
 
@@ -153,11 +185,16 @@ export function resolveScenarioInput(
   // ---------------------------------------------------------------- network, finders, output
   let network: NetworkPolicy;
   if (!input.network) {
-    network = { kind: 'best-margin' };
-    ctx.recordDefault({ path: 'network.policy', value: 'best-margin', reason: 'each satellite uses the station with the best margin' });
-  } else if (input.network.policy === 'best-margin') {
+    network = { kind: 'highest-rate' };
+    ctx.recordDefault({ path: 'network.policy', value: 'highest-rate', reason: 'each satellite uses the station that delivers the highest information rate, then the best margin' });
+  } else if (input.network.policy === 'highest-rate' || input.network.policy === 'best-margin') {
+    if (input.network.policy === 'best-margin') {
+      const msg = `${src.where(['network', 'policy'])}: best-margin is deprecated, renamed highest-rate (the rule is unchanged: highest information rate, then margin); write policy: highest-rate`;
+      warnings.push(msg);
+      notices.push(msg);
+    }
     if (input.network.order) src.fail(['network', 'order'], 'only used with policy: priority');
-    network = { kind: 'best-margin' };
+    network = { kind: 'highest-rate' };
   } else {
     let order = input.network.order;
     if (order) {
@@ -191,6 +228,10 @@ export function resolveScenarioInput(
     if (rf.range.per_decade === undefined) ctx.recordDefault({ path: 'rate_finder.range.per_decade', value: '10', reason: 'ten logarithmic steps per decade' });
     rateCandidatesBps = [];
     const n = Math.floor(perDecade * Math.log10(to_bps / from_bps) + 1e-9);
+    // A range like 5e-324 to 1e308 b/s has an infinite ratio: without this the list would grow until memory runs out.
+    if (!(n <= MAX_RATE_CANDIDATES)) {
+      src.fail(['rate_finder', 'range'], `${from_bps} to ${to_bps} b/s at ${perDecade} per decade gives ${Number.isFinite(n) ? n + 1 : 'endless'} rates (allowed at most ${MAX_RATE_CANDIDATES})`);
+    }
     for (let k = 0; k <= n; k++) rateCandidatesBps.push(Number((from_bps * 10 ** (k / perDecade)).toPrecision(6)));
     if (rateCandidatesBps[rateCandidatesBps.length - 1] < to_bps) rateCandidatesBps.push(to_bps);
   } else {
@@ -227,6 +268,7 @@ export function resolveScenarioInput(
       exactOrbit,
       defaultsApplied,
       warnings,
+      notices,
     },
     elementFiles,
   };

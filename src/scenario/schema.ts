@@ -187,7 +187,7 @@ export const linkSchema = obj({
 
 export const satelliteSchema = obj({
   name: name('Satellite'),
-  elements: z.string().min(1).meta(d('Element file (TLE/3LE or OMM JSON), relative to the scenario file')),
+  elements: z.string().min(1).meta(d('Element file (TLE/3LE, OMM JSON or OMM XML), relative to the scenario file')),
   select: z.string().min(1).optional().meta(d('Object name or catalogue number to pick when the file holds several element sets')),
   links: z.array(linkSchema).min(1),
 }).meta({ title: 'Satellite' });
@@ -205,7 +205,8 @@ export const climateSchema = obj({
   temperature_c: num().min(-40).max(50).optional().meta(d('Surface temperature (°C), within the ITU-R P.453 range −40 to 50 °C')),
   temperature_k: num().min(233.15).max(323.15).optional().meta(d('Surface temperature (K), within the ITU-R P.453 range 233.15 to 323.15 K')),
   water_vapour_density_g_m3: nonNeg().max(50).optional().meta(d('Surface water-vapour density (g/m³)')),
-  water_vapour_content_kg_m2: nonNeg().max(100).optional().meta(d('Integrated water-vapour content V_t (kg/m²), preferred by P.676 Annex 2 when known')),
+  // P.676-12 Annex 2 takes T_ref = 14 ln(0.22 V_t / 2.38) + 3 °C: below 0.1 kg/m² it falls under -60 °C, and at 1e-8 below 0 K (NaN).
+  water_vapour_content_kg_m2: z.number().min(0.1).max(100).optional().meta(d('Integrated water-vapour content V_t (kg/m²), 0.1 to 100 (the driest air holds about 1), preferred by P.676 Annex 2 when known')),
   relative_humidity_pct: nonNeg().max(100).optional().meta(d('Surface relative humidity (%)')),
   n_wet: nonNeg().max(300).optional().meta(d('Wet term of the surface refractivity, N_wet (N-units, P.453)')),
   cloud_liquid_water_kg_m2: nonNeg().max(10).optional().meta(d('Columnar cloud liquid water for the exceedance cases (kg/m², P.840)')),
@@ -232,11 +233,14 @@ export const stationSchema = obj({
 
 // ---------------------------------------------------------------- run options
 
+/** Shortest time step (s): the event search resolves AOS/LOS to 5 ms, a finer grid adds nothing but time. */
+export const MIN_STEP_S = 0.01;
+
 export const windowSchema = obj({
   start: z.string().min(1).meta(d('Start (ISO-8601; UTC when no offset)')),
   end: z.string().min(1).optional().meta(d('End (ISO-8601); give this or duration')),
   duration: z.union([z.string().min(1), pos()]).optional().meta(d('Duration like 90s, 45m, 36h, 7d, 2w, or seconds; give this or end')),
-  step_s: pos().max(3600).optional().meta(d('Time step inside passes (s); default 1')),
+  step_s: z.number().min(MIN_STEP_S).max(3600).optional().meta(d(`Time step inside passes (s), ${MIN_STEP_S} to 3600; default 1`)),
 }).meta({ title: 'Analysis window' });
 
 export const weatherSchema = z
@@ -245,7 +249,8 @@ export const weatherSchema = z
   .meta(d('Weather cases: "clear" and/or annual exceedance percentages p in [0.001, 5] (P.618); default [clear]'));
 
 export const networkSchema = obj({
-  policy: z.enum(['best-margin', 'priority']).meta(d('Which station a satellite uses when several see it; default best-margin')),
+  policy: z.enum(['highest-rate', 'priority', 'best-margin'])
+    .meta(d('Which station a satellite uses when several see it: highest-rate (the station delivering the highest information rate, then the best margin; default) or priority (the first in order that closes). best-margin is the old name of highest-rate, accepted with a deprecation warning')),
   order: z.array(name('Station')).min(1).optional().meta(d('Station order for the priority policy (first = highest); default the station priorities')),
 }).meta({ title: 'Network policy' });
 

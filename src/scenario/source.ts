@@ -3,7 +3,9 @@
  * names `FILE:LINE path`. The `yaml` package parses JSON as well (JSON is
  * YAML 1.2 flow syntax), so both formats get line numbers.
  */
-import { LineCounter, isAlias, isMap, isScalar, isSeq, parseDocument, type Document } from 'yaml';
+import {
+  LineCounter, isAlias, isCollection, isMap, isScalar, isSeq, parseDocument, visit, type Alias, type Document, type Node as YamlNode,
+} from 'yaml';
 import type { z } from 'zod';
 import { InputError } from '../errors.js';
 
@@ -33,16 +35,40 @@ export interface ScenarioSource {
   fail(path: Path, message: string): never;
 }
 
+/** Deepest nesting of mappings and lists accepted (a scenario needs about 10). */
+export const MAX_NESTING = 64;
+/** Most values a document may expand to once its aliases are followed (a scenario has a few hundred). */
+export const MAX_EXPANDED_VALUES = 100_000;
+
+/** The parser's error codes that are limits, not syntax, worded for a person. */
+const LIMIT_WORDS: Partial<Record<string, string>> = {
+  RESOURCE_EXHAUSTION: 'nested too deeply for the YAML/JSON parser',
+};
+
 export function parseScenarioSource(text: string, fileLabel: string): ScenarioSource {
   const lineCounter = new LineCounter();
   const doc = parseDocument(text.replace(/^\uFEFF/, ''), { lineCounter, prettyErrors: false, uniqueKeys: true });
+  const at = (offset: number | undefined) => {
+    const pos = lineCounter.linePos(offset ?? 0);
+    return `${fileLabel}:${pos.line}:${pos.col}`;
+  };
   const first = doc.errors[0];
   if (first) {
-    const pos = lineCounter.linePos(first.pos[0]);
+    const limit = LIMIT_WORDS[first.code];
+    if (limit) throw new InputError(`${at(first.pos[0])}: ${limit} (allowed: YAML 1.2 or JSON nested at most ${MAX_NESTING} levels)`);
     const what = first.message.split('\n')[0].replace(/\s+at line \d+, column \d+:?\s*$/, '').trim();
-    throw new InputError(`${fileLabel}:${pos.line}:${pos.col}: YAML/JSON syntax error: ${what} (allowed: YAML 1.2 or JSON, keys unique)`);
+    throw new InputError(`${at(first.pos[0])}: YAML/JSON syntax error: ${what} (allowed: YAML 1.2 or JSON, keys unique)`);
   }
-  const value = doc.toJS({ maxAliasCount: 100 }) as unknown;
+  checkStructure(doc, at);
+  let value: unknown;
+  try {
+    // checkStructure already bounds what aliases expand to; yaml's own count stays as a second guard.
+    value = doc.toJS({ maxAliasCount: 10_000 }) as unknown;
+  } catch (e) {
+    if (!(e instanceof ReferenceError)) throw e;
+    const alias = firstAlias(doc);
+    throw new InputError(`${at(alias?.range?.[0])}: YAML aliases could not be expanded (${e.message}; allowed: aliases that each follow their anchor, expanding to at most ${MAX_EXPANDED_VALUES} values)`);
+  }
   const lineAt = (offset: number | undefined) => (offset === undefined ? 1 : lineCounter.linePos(offset).line);
   const lineOf = (path: Path) => lineOfPath(doc, path, lineAt);
   const where = (path: Path) => `${fileLabel}:${lineOf(path)} ${formatPath(path)}`;
@@ -55,6 +81,66 @@ export function parseScenarioSource(text: string, fileLabel: string): ScenarioSo
       throw new InputError(`${where(path)}: ${message}`);
     },
   };
+}
+
+function firstAlias(doc: Document): Alias | undefined {
+  let found: Alias | undefined;
+  visit(doc, { Alias(_k, node) { found = node; return visit.BREAK; } });
+  return found;
+}
+
+/**
+ * Before any value is built: nesting depth, every alias has an anchor before
+ * it and does not sit inside it, and the values the aliases expand to stay
+ * bounded (an "alias bomb" nests aliases of aliases to expand exponentially).
+ * `at(offset)` gives `FILE:LINE:COL`.
+ */
+function checkStructure(doc: Document, at: (offset: number | undefined) => string): void {
+  const anchors = new Map<string, YamlNode>();
+  const targetOf = new Map<Alias, YamlNode>();
+  const sizeOf = new Map<YamlNode, number>();
+  // Values a node stands for once aliases are followed; aliases inside it were visited (and resolved) before it is used.
+  const expanded = (node: unknown): number => {
+    if (isAlias(node)) {
+      const t = targetOf.get(node);
+      return t === undefined ? 1 : expanded(t);
+    }
+    if (!isCollection(node)) return 1;
+    const memo = sizeOf.get(node);
+    if (memo !== undefined) return memo;
+    let n = 1;
+    for (const item of node.items as unknown[]) {
+      if (item && typeof item === 'object' && 'key' in item && 'value' in item) n += expanded((item as { key: unknown }).key) + expanded((item as { value: unknown }).value);
+      else n += expanded(item);
+    }
+    sizeOf.set(node, n);
+    return n;
+  };
+  let total = 0;
+  visit(doc, {
+    Node(_key, node, path) {
+      const depth = path.filter((p) => isCollection(p)).length;
+      if (depth > MAX_NESTING) throw new InputError(`${at(node.range?.[0])}: nested more than ${MAX_NESTING} levels deep (allowed: at most ${MAX_NESTING} levels of mappings and lists)`);
+      if (isAlias(node)) {
+        const target = anchors.get(node.source);
+        if (target === undefined) {
+          throw new InputError(`${at(node.range?.[0])}: YAML alias *${node.source} has no anchor &${node.source} before it (allowed: an alias after its anchor, or the value written out)`);
+        }
+        if (path.includes(target as never)) {
+          throw new InputError(`${at(node.range?.[0])}: YAML alias *${node.source} sits inside the value it names, so it would never end (allowed: an alias outside its anchor's value)`);
+        }
+        targetOf.set(node, target);
+        total += expanded(target);
+      } else {
+        total += 1;
+        if (node.anchor) anchors.set(node.anchor, node);
+      }
+      if (total > MAX_EXPANDED_VALUES) {
+        throw new InputError(`${at(node.range?.[0])}: YAML aliases expand the document to more than ${MAX_EXPANDED_VALUES} values, as an alias bomb does (allowed: aliases that expand to at most ${MAX_EXPANDED_VALUES} values; write repeated parts out or use fewer nested aliases)`);
+      }
+      return undefined;
+    },
+  });
 }
 
 function keyText(key: unknown): string {

@@ -20,7 +20,7 @@ export interface ScenarioStation {
   priority: number;
 }
 
-export type NetworkPolicy = { kind: 'best-margin' } | { kind: 'priority'; order: string[] };
+export type NetworkPolicy = { kind: 'highest-rate' } | { kind: 'priority'; order: string[] };
 
 /** The scenario with every reference and unit resolved: what the run, mask and rate commands consume. */
 export interface ResolvedScenario {
@@ -44,4 +44,10 @@ export interface ResolvedScenario {
   exactOrbit: boolean;
   defaultsApplied: AppliedDefault[];
   warnings: string[];
+  /**
+   * The warnings a person must see before a run starts (a deprecated name, a
+   * window far from the element epoch): the CLI prints them on stderr, even
+   * with --quiet. Each is also in `warnings` (and so in summary.json).
+   */
+  notices?: string[];
 }

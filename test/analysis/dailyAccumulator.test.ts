@@ -133,7 +133,7 @@ describe('network aggregate', () => {
       const k = chooseNetworkStation([
         { station: 'Gorsemoor', marginDB: ca.margin_db, usable: ca.usable, rateBps: 9600, priority: 1 },
         { station: 'Lintel Point', marginDB: cb.margin_db, usable: cb.usable, rateBps: 9600, priority: 2 },
-      ], { kind: 'best-margin' });
+      ], { kind: 'highest-rate' });
       if (ca.usable || cb.usable) unionS += 10;
       if (k >= 0) dn.add(t, 10, k === 0 ? ca : cb, k === 0 ? a : b);
     }

@@ -9,7 +9,7 @@ describe('chooseNetworkStation', () => {
 
   it('best margin among usable candidates (an unusable larger margin is ignored)', () => {
     expect(chooseNetworkStation(set)).toBe(2);
-    expect(chooseNetworkStation(set, { kind: 'best-margin' })).toBe(2);
+    expect(chooseNetworkStation(set, { kind: 'highest-rate' })).toBe(2);
   });
 
   it('ties in margin go to the higher priority, then to the first listed', () => {

@@ -41,9 +41,10 @@ describe('passbudget explain', () => {
     expect(j.step.elevation_deg).toBeCloseTo(20, 2);
     expect(j.step.cases).toHaveLength(3);
     expect(j.step.cases[0].weather).toBe('clear');
-    expect(j.pass.index).toBe(2);
+    expect(j.pass.pass_number).toBe(2);
     // Rising side: before TCA.
-    expect(j.step.time_s).toBeLessThan(j.pass.tcaS);
+    expect(j.step.time_s).toBeLessThan(Date.parse(j.pass.tca_utc) / 1000);
+    expect(j.terms[0]).toHaveProperty('per_case', false);
     const cn0 = j.terms.find((t: { term: string }) => t.term === 'C/N0');
     expect(cn0.values[1]).toBe(j.step.cases[1].c_over_n0_dbhz);
   });
@@ -51,7 +52,7 @@ describe('passbudget explain', () => {
     const a = JSON.parse((await run([...base, '--link', 'uhf-tm', '--pass', '1', '--at-tca', '--format', 'json'])).out);
     const iso = new Date(a.step.time_s * 1000).toISOString();
     const b = JSON.parse((await run([...base, '--link', 'uhf-tm', '--at', iso, '--format', 'json'])).out);
-    expect(b.pass.index).toBe(1);
+    expect(b.pass.pass_number).toBe(1);
     expect(b.step.range_km).toBeCloseTo(a.step.range_km, 1);
     expect(b.step.cases[0].margin_db).toBeCloseTo(a.step.cases[0].margin_db, 2);
   });

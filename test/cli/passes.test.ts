@@ -44,6 +44,7 @@ const badFiles = {
   eccOmm: file('ecc.json', JSON.stringify([{ ...omm[0], ECCENTRICITY: 1.05 }], null, 2)),
   meanMotion: file('n0.tle', `${L1}\n${withTleChecksum(`${L2.slice(0, 52)} 0.00000000${L2.slice(63, 68)}`)}\n`),
   json: file('broken.json', '[\n  { "OBJECT_NAME": "X",\n  ]\n'),
+  xml: file('ecc.xml', readFileSync('fixtures/tle/orbilux-3.omm.xml', 'utf8').replace('<ECCENTRICITY>0.0011', '<ECCENTRICITY>1.05')),
 };
 const st = ['--station', '68.40,17.25,120'];
 
@@ -53,9 +54,11 @@ const cases: { name: string; args: string[]; where: RegExp }[] = [
   { name: 'mismatched catalogue numbers', args: ['--elements', badFiles.mismatch, ...st], where: /mismatch\.tle:2:3: catalogue number 99982 does not match/ },
   { name: 'eccentricity >= 1 in a TLE (correct checksum)', args: ['--elements', badFiles.eccTle, ...st], where: /ecc\.tle:2:27: eccentricity/ },
   { name: 'eccentricity >= 1 in OMM JSON', args: ['--elements', badFiles.eccOmm, ...st], where: /ecc\.json:\d+:5: ECCENTRICITY is 1\.05 \(allowed 0 <= e < 1\)/ },
+  { name: 'eccentricity >= 1 in OMM XML', args: ['--elements', badFiles.xml, ...st], where: /ecc\.xml:22:11: ECCENTRICITY is "1\.05" \(allowed 0 <= e < 1\)/ },
+  { name: 'a folder as elements file', args: ['--elements', tmp, ...st], where: /cannot read the elements file: is a folder, not a file/ },
   { name: 'mean motion 0 (correct checksum)', args: ['--elements', badFiles.meanMotion, ...st], where: /n0\.tle:2:53: mean motion is 0/ },
   { name: 'broken JSON', args: ['--elements', badFiles.json, ...st], where: /broken\.json:3:3: not valid JSON/ },
-  { name: 'missing elements file', args: ['--elements', path.join(tmp, 'nope.tle'), ...st], where: /nope\.tle: cannot read the elements file \(ENOENT/ },
+  { name: 'missing elements file', args: ['--elements', path.join(tmp, 'nope.tle'), ...st], where: /nope\.tle: cannot read the elements file: not found \(allowed/ },
   { name: 'bad start date', args: ['--elements', DEMO, ...st, '--start', '2026-11-31T00:00:00Z'], where: /^passbudget: --start: not an ISO-8601 date-time/ },
   { name: 'bad end date', args: ['--elements', DEMO, ...st, '--end', 'tomorrow'], where: /^passbudget: --end: not an ISO-8601/ },
   { name: 'end before start', args: ['--elements', DEMO, ...st, '--start', '2026-11-21T00:00:00Z', '--end', '2026-11-20T00:00:00Z'], where: /^passbudget: --end: .* is not after the window start/ },
@@ -93,6 +96,15 @@ describe.concurrent('passbudget passes: malformed input', () => {
 });
 
 describe('passbudget passes: good runs', () => {
+  it('OMM XML, OMM JSON and the TLE of the same elements give the same passes, byte for byte', async () => {
+    const args = ['--station', 'Kaldfjell=68.40,17.25,120', '--station', 'Maraka=0.45,37.6,1600', '--mask', '5', '--start', '2026-11-20T00:00:00Z', '--duration', '48h', '--format', 'csv'];
+    const [x, j, t] = await Promise.all(['fixtures/tle/orbilux-3.omm.xml', 'fixtures/tle/orbilux-3.omm.json', DEMO].map((f) => run(['--elements', f, ...args])));
+    expect(x.code, x.stderr).toBe(0);
+    expect(x.stdout.split('\n').length).toBeGreaterThan(10);
+    expect(x.stdout).toBe(t.stdout);
+    expect(j.stdout).toBe(t.stdout);
+  });
+
   it('CSV to a file carries exactly the pass fields; JSON the same; epoch warning on stderr', async () => {
     const csvPath = path.join(tmp, 'passes.csv');
     const r = await run(['--elements', DEMO, '--station', 'Kaldfjell=68.40,17.25,120', '--mask', '5', '--duration', '24h', '--format', 'csv', '--out', csvPath]);

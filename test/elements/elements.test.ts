@@ -96,7 +96,7 @@ describe('OMM JSON', () => {
   });
   it.each([
     ['ECCENTRICITY', 1.2, /^o\.json:\d+:\d+: ECCENTRICITY is 1\.2 \(allowed 0 <= e < 1\)/],
-    ['MEAN_MOTION', -1, /MEAN_MOTION is -1 \(allowed revolutions per day, greater than 0\)/],
+    ['MEAN_MOTION', -1, /MEAN_MOTION is -1 \(allowed revolutions per day, greater than 0 and at most 20\)/],
     ['EPOCH', '2026-13-01T00:00:00', /EPOCH is "2026-13-01T00:00:00"/],
     ['REF_FRAME', 'GCRF', /REF_FRAME is "GCRF" \(allowed TEME/],
     ['INCLINATION', 'abc', /INCLINATION is "abc"/],

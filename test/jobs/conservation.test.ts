@@ -15,7 +15,8 @@ import path from 'node:path';
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runPipeline } from '../../src/sweep/pipeline.js';
-import type { DailyRow, RunSummary } from '../../src/analysis/types.js';
+import type { DailyRow } from '../../src/analysis/types.js';
+import type { SummaryJson } from '../../src/output/json.js';
 import { runScenario } from '../../src/jobs/run.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
 import { PAIR, num, readCsv, removeTempDirs, tempDir, type CsvRecord } from './helpers.js';
@@ -30,7 +31,7 @@ let outDir: string;
 let steps: CsvRecord[];
 let passes: CsvRecord[];
 let daily: CsvRecord[];
-let summary: RunSummary;
+let summary: SummaryJson;
 let pipelineDaily: DailyRow[];
 let linkSteps: number;
 
@@ -43,7 +44,7 @@ beforeAll(async () => {
   steps = readCsv(path.join(outDir, 'steps.csv')).rows;
   passes = readCsv(path.join(outDir, 'passes.csv')).rows;
   daily = readCsv(path.join(outDir, 'daily.csv')).rows;
-  summary = JSON.parse(readFileSync(path.join(outDir, 'summary.json'), 'utf8')) as RunSummary;
+  summary = JSON.parse(readFileSync(path.join(outDir, 'summary.json'), 'utf8')) as SummaryJson;
 });
 
 const caseNames = () => scenario.weatherCases.map((c) => c.name);
@@ -104,8 +105,8 @@ describe('network volume ≤ Σ station volumes (each second counted once)', () 
     checkNetwork(new Map([...groups].filter(([, rows]) => isAdaptive(rows[0].link))), (r) => r.adaptiveVolumeBits!, 1e-6);
     const totals = groupBy(summary.totals, (t) => `${t.link}|${t.weather}`);
     expect(totals.size).toBe(2 * caseNames().length);
-    checkNetwork(totals, (t) => t.fixedVolumeBits, 1e-6);
-    checkNetwork(new Map([...totals].filter(([, rows]) => isAdaptive(rows[0].link))), (t) => t.adaptiveVolumeBits!, 1e-6);
+    checkNetwork(totals, (t) => t.fixed_volume_bits, 1e-6);
+    checkNetwork(new Map([...totals].filter(([, rows]) => isAdaptive(rows[0].link))), (t) => t.adaptive_volume_bits!, 1e-6);
   });
 
   it('also under the priority policy (library, bits)', async () => {
@@ -117,7 +118,7 @@ describe('network volume ≤ Σ station volumes (each second counted once)', () 
   });
 });
 
-describe('network volume recomputed step by step (best-margin policy)', () => {
+describe('network volume recomputed step by step (highest-rate policy)', () => {
   // Both stations run the same links (same bit rate, same mode table, same losses), so at
   // a grid time where several stations can take the satellite, the station with the most
   // margin over a common threshold is the one with the highest Es/N0, and so (for the

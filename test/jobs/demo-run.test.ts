@@ -11,7 +11,7 @@ import { createRequire } from 'node:module';
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { RunSummary } from '../../src/analysis/types.js';
+import type { SummaryJson } from '../../src/output/json.js';
 import { CAUTIONS, MODELS_USED } from '../../src/jobs/outputs.js';
 import { loadScenario } from '../../src/scenario/index.js';
 import { CLI, DEMO, ROOT, num, readCsv, runCli, removeTempDirs, tempDir, writeDemoCopy, type CsvRecord } from './helpers.js';
@@ -24,7 +24,7 @@ const outDir = path.join(tmp, 'out');
 let scenarioFile: string;
 let steps: CsvRecord[];
 let passes: CsvRecord[];
-let summary: RunSummary;
+let summary: SummaryJson;
 let stdout: string;
 
 beforeAll(async () => {
@@ -35,7 +35,7 @@ beforeAll(async () => {
   stdout = r.stdout;
   steps = readCsv(path.join(outDir, 'steps.csv')).rows;
   passes = readCsv(path.join(outDir, 'passes.csv')).rows;
-  summary = JSON.parse(readFileSync(path.join(outDir, 'summary.json'), 'utf8')) as RunSummary;
+  summary = JSON.parse(readFileSync(path.join(outDir, 'summary.json'), 'utf8')) as SummaryJson;
 });
 
 const t = (iso: string) => Date.parse(iso) / 1000;
@@ -163,25 +163,25 @@ describe('rain at 0.1 % (ITU-R P.838-3 / P.618-13)', () => {
 
 describe('summary.json: the provenance record', () => {
   it('names the window, the stations, links and weather cases of the run', () => {
-    expect(summary.window.days).toBe(1);
-    expect(summary.window.stepS).toBe(1);
+    expect(summary.window.duration_d).toBe(1);
+    expect(summary.window.step_s).toBe(1);
     expect(summary.stations).toEqual(['Kaldfjell', 'Pico Verde', 'Maraka']);
     expect(summary.links).toEqual(['uhf-tm', 's-band', 'x-band']);
-    expect(summary.weatherCases).toEqual(['clear', '1%', '0.1%']);
-    expect(summary.scenarioFile).toBe(path.resolve(scenarioFile));
+    expect(summary.weather_cases).toEqual(['clear', '1%', '0.1%']);
+    expect(summary.scenario_file).toBe(path.resolve(scenarioFile));
   });
 
   it('lists the defaults applied, each with path, value and reason', () => {
-    expect(summary.defaultsApplied.length).toBeGreaterThan(5);
-    for (const d of summary.defaultsApplied) {
+    expect(summary.defaults_applied.length).toBeGreaterThan(5);
+    for (const d of summary.defaults_applied) {
       expect(typeof d.path).toBe('string');
       expect(d.path.length).toBeGreaterThan(0);
       expect(typeof d.value).toBe('string');
       expect(d.reason.length).toBeGreaterThan(5);
     }
     // Pico Verde gives a rain zone, not R0.01: the zone's rate (from memory, P.837-1) is a default.
-    expect(summary.defaultsApplied.some((d) => /stations\[1\]\.climate\.rain_rate_001_mm_h/.test(d.path))).toBe(true);
-    expect(stdout).toContain(`${summary.defaultsApplied.length} defaults applied`);
+    expect(summary.defaults_applied.some((d) => /stations\[1\]\.climate\.rain_rate_001_mm_h/.test(d.path))).toBe(true);
+    expect(stdout).toContain(`${summary.defaults_applied.length} defaults applied`);
   });
 
   it('lists the models with their published sources', () => {
@@ -203,13 +203,13 @@ describe('summary.json: the provenance record', () => {
   });
 
   it('carries the SHA-256 of the inputs: 64 hex digits = hash(scenario bytes, element file bytes)', () => {
-    expect(summary.inputsSha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(summary.inputs_sha256).toMatch(/^[0-9a-f]{64}$/);
     const s = loadScenario(scenarioFile);
     const h = createHash('sha256').update(readFileSync(scenarioFile));
     for (const f of [...new Set(s.satellites.map((x) => x.elementsFile))]) h.update(readFileSync(path.resolve(path.dirname(scenarioFile), f)));
-    expect(summary.inputsSha256).toBe(h.digest('hex'));
+    expect(summary.inputs_sha256).toBe(h.digest('hex'));
     // A different scenario text gives a different hash.
-    expect(loadScenario(DEMO).inputsSha256).not.toBe(summary.inputsSha256);
+    expect(loadScenario(DEMO).inputsSha256).not.toBe(summary.inputs_sha256);
   });
 
   it('carries the cautions and the warnings (P.372 extrapolated at UHF)', () => {

@@ -22,6 +22,7 @@ import { runPipeline } from '../../src/sweep/pipeline.js';
 import type { DailyRow, MaskFinding } from '../../src/analysis/types.js';
 import { MASK_COLUMNS, RATE_COLUMNS, maskScenario, rateScenario } from '../../src/jobs/finders.js';
 import { loadScenario, type ResolvedScenario } from '../../src/scenario/index.js';
+import { badKeys } from '../output/jsonKeys.js';
 import { CLI, PAIR, num, readCsv, runCli, removeTempDirs, tempDir, type CsvRecord } from './helpers.js';
 
 afterAll(removeTempDirs);
@@ -195,6 +196,15 @@ describe('rate finder', () => {
           .toBeLessThanOrEqual((3 * scenario.window.stepS) / 60);
       }
     }
+  });
+});
+
+describe('mask.json', () => {
+  it('is snake_case with units in the names, one finding per station, link and case', () => {
+    const j = JSON.parse(readFileSync(path.join(outDir, 'mask.json'), 'utf8')) as { findings: Record<string, unknown>[] };
+    expect(badKeys(j)).toEqual([]);
+    expect(Object.keys(j.findings[0]).sort()).toEqual(['fraction', 'link', 'mask_deg', 'mount_limited_excluded_s', 'station', 'weather']);
+    expect(j.findings.map((f) => f.mask_deg)).toEqual(findings.map((f) => f.maskDeg));
   });
 });
 

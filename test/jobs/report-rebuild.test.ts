@@ -9,6 +9,8 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { loadScenario } from '../../src/scenario/index.js';
 import { runScenario } from '../../src/jobs/run.js';
 import { loadReportInput, rebuildReport } from '../../src/jobs/report.js';
+import { summaryFromJson } from '../../src/output/json.js';
+import { allKeys, badKeys } from '../output/jsonKeys.js';
 import { removeTempDirs, tempDir, writeDemoCopy } from './helpers.js';
 
 afterAll(removeTempDirs);
@@ -30,5 +32,30 @@ describe('report rebuilt from an output folder', () => {
     const after = readFileSync(await rebuildReport(run.outDir), 'utf8');
     expect(sections(after)).toBe(sections(before));
     expect(after).toContain('every step of every pass');
+  });
+
+  it('summary.json is snake_case with units in the names, and reads back into the same record', async () => {
+    const dir = tempDir('summary-names');
+    const run = await runScenario(loadScenario(writeDemoCopy(dir, '6h')), { outDir: path.join(dir, 'out'), quiet: true, steps: false });
+    const file = path.join(run.outDir, 'summary.json');
+    const json = JSON.parse(readFileSync(file, 'utf8')) as Record<string, unknown>;
+    // required_margin_db and horizon_masks_deg are keyed by link and station names.
+    const maps = ['required_margin_db', 'horizon_masks_deg'];
+    expect(badKeys(json, maps)).toEqual([]);
+    const keys = allKeys(json, maps);
+    for (const k of ['scenario_file', 'start_utc', 'end_utc', 'step_s', 'duration_d', 'weather_cases', 'network_policy', 'usable_passes', 'usable_min',
+      'fixed_volume_bits', 'adaptive_volume_bits', 'daily_volume_bits', 'defaults_applied', 'inputs_sha256', ...maps]) {
+      expect(keys.has(k), k).toBe(true);
+    }
+    for (const old of ['usablePasses', 'fixedVolumeBits', 'inputsSha256', 'requiredMarginDB', 'stepS']) expect(keys.has(old), old).toBe(false);
+    expect((json.window as { duration_d: number }).duration_d).toBe(0.25);
+    // One conversion each way: what report DIR reads is the run's own record.
+    expect(summaryFromJson(json, file)).toEqual(run.summary);
+    expect((await loadReportInput(run.outDir)).summary).toEqual(run.summary);
+  });
+
+  it('a summary.json with the old camelCase names is refused with one line saying so', () => {
+    expect(() => summaryFromJson({ scenario: 'x', scenarioFile: '/a.yaml', weatherCases: ['clear'] }, 'old/summary.json'))
+      .toThrow(/^old\/summary\.json: written by an older passbudget \(camelCase keys/);
   });
 });

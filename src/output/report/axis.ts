@@ -55,13 +55,40 @@ export function axisLeft(scale: Continuous, area: PlotArea, o: AxisOptions): str
     o.grid ? tag('path', { d: grid, stroke: GRID, fill: 'none' }) : '', tag('path', { d: marks, stroke: INK, fill: 'none' }), labels, label);
 }
 
-/** Bottom axis of a band scale: one label per category. */
-export function axisBottomBand(scale: ScaleBand<string>, area: PlotArea, label: string): string {
+/** Font size of tick labels (px), as `svg .tick` in page.ts. */
+export const TICK_FONT_PX = 10.5;
+/** Space kept between neighbouring tick labels (px). */
+export const TICK_GAP_PX = 6;
+
+/**
+ * Estimated width (px) of a tick label: digits, '-' and ':' in the page's
+ * sans-serif faces average under 0.6 em, so this errs on the wide side.
+ */
+export function tickLabelWidthPx(text: string, fontPx = TICK_FONT_PX): number {
+  return text.length * 0.6 * fontPx;
+}
+
+/** Every how many categories a label fits without touching the next (1 = all). */
+export function bandLabelEvery(scale: ScaleBand<string>, format: (d: string) => string = (d) => d): number {
+  const widest = Math.max(0, ...scale.domain().map((d) => tickLabelWidthPx(format(d))));
+  return Math.max(1, Math.ceil((widest + TICK_GAP_PX) / Math.max(scale.step(), 1e-9)));
+}
+
+/**
+ * Bottom axis of a band scale: a tick mark per category, and a label on
+ * every category when they fit, else on every k-th from the first, so labels
+ * never overlap however many categories there are.
+ */
+export function axisBottomBand(scale: ScaleBand<string>, area: PlotArea, label: string, format: (d: string) => string = (d) => d): string {
+  const every = bandLabelEvery(scale, format);
   let s = tag('line', { x1: area.x0, x2: area.x1, y1: area.y1, y2: area.y1, stroke: INK });
-  for (const d of scale.domain()) {
+  let marks = '';
+  scale.domain().forEach((d, i) => {
     const x = (scale(d) ?? 0) + scale.bandwidth() / 2;
-    s += text({ x, y: area.y1 + 17, 'text-anchor': 'middle', class: 'tick' }, d);
-  }
+    marks += `M${px(x)} ${px(area.y1)}v${i % every === 0 ? 4 : 2}`;
+    if (i % every === 0) s += text({ x, y: area.y1 + 17, 'text-anchor': 'middle', class: 'tick' }, format(d));
+  });
+  s += tag('path', { d: marks, stroke: INK, fill: 'none' });
   s += text({ x: (area.x0 + area.x1) / 2, y: area.y1 + 34, 'text-anchor': 'middle', class: 'axis-label', fill: MUTED }, label);
   return tag('g', { class: 'axis axis-x' }, s);
 }

@@ -47,7 +47,11 @@ export function barChart(title: string, groups: BarGroup[], keys: string[], fram
         `<title>${escapeTitle(`${g.day} ${v.key}: ${v.bits} bit`)}</title>`);
     });
   }
-  body += axisBottomBand(x, area, 'UTC day');
+  // Days of one year are labelled MM-DD with the year in the axis label, so more of them fit.
+  const years = [...new Set(groups.map((g) => g.day.slice(0, 4)))];
+  body += years.length === 1
+    ? axisBottomBand(x, area, `UTC day, ${years[0]}`, (d) => d.slice(5))
+    : axisBottomBand(x, area, 'UTC day');
   return svgRoot(frame, title, body);
 }
 
