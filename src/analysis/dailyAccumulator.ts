@@ -188,6 +188,8 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
    */
   function columns(originS: number, k0: number, dtS: number, from: number, to: number,
     usable: Uint8Array, rateBps: Float64Array, es: Float64Array, l: LinkSpec, onlyUsable: boolean): void {
+    dtS *= 1;
+    const fixedRate = fixedRateBps * 1;
     let i = from;
     while (i < to) {
       const d = dayIndex(originS + (k0 + i) * dtS);
@@ -195,7 +197,8 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
       let j = i + 1;
       while (j < to && originS + (k0 + j) * dtS < dayEndS) j++;
       const b = bins[d];
-      let us = b.usableS, bits = adaptive ? b.adaptiveBits : b.fixedBits;
+      // × 1: plain float64 locals (a field read as is would make the loop box every update).
+      let us = b.usableS * 1, bits = (adaptive ? b.adaptiveBits : b.fixedBits) * 1;
       let fit: ModeFit | null = null;
       if (adaptive) {
         if (d !== fitDay || l !== fitLink || !fitAcc) { fitAcc = fitFor(l, d); fitDay = d; fitLink = l; }
@@ -230,7 +233,7 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
         lastUsableStartS = tLast;
         for (let x = q; x < r; x++) {
           us += dtS;
-          bits += (adaptive ? rateBps[x] : fixedRateBps) * dtS;
+          bits += (adaptive ? rateBps[x] : fixedRate) * dtS;
           if (fit) fit.add(es[x], dtS);
         }
         q = r;
@@ -251,6 +254,16 @@ export function createDailyAccumulator(options: DailyAccumulatorOptions): DailyA
       columns(originS, k0, dtS, from, to, usable, rateBps, esN0DB, stepLink ?? link, onlyUsable);
     },
     endPass(aosS, verdict) {
+      if (pending.size === 0) {
+        // No mode fits to share out (a fixed-rate link, or no step): the pass count only.
+        const d = dayIndex(aosS);
+        if (exportable) touch(d);
+        bins[d].passes++;
+        if (verdict === 'usable') bins[d].usablePasses++;
+        fitAcc = null; fitLink = null; fitDay = -1;
+        pendingSteps = 0;
+        return;
+      }
       // Fit time per day touched (every link the pass's steps came from, together).
       const perDay = new Map<number, Float64Array>();
       for (const days of pending.values()) {

@@ -89,19 +89,24 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
     return Math.min(bins - 1, Math.max(0, k));
   };
   let touchedLo = bins, touchedHi = -1;
-  const addToBin = (k: number, dtS: number, usable: boolean, rateBps: number, mountLimited: boolean) => {
+  const addBins = (kk: Int32Array, usable: Uint8Array, rateBps: Float64Array, limited: Uint8Array, n: number, dtS: number) => {
     if (!(dtS > 0)) return;
-    if (k < touchedLo) touchedLo = k;
-    if (k > touchedHi) touchedHi = k;
-    if (mountLimited && !usable) {
-      keyholeS[k] += dtS;
-      return;
+    for (let i = 0; i < n; i++) {
+      const k = kk[i];
+      if (k < 0) continue;
+      if (k < touchedLo) touchedLo = k;
+      if (k > touchedHi) touchedHi = k;
+      const u = usable[i] === 1;
+      // Unusable while the mount was rate-limited: kept apart (no mask removes it).
+      if (limited[i] === 1 && !u) { keyholeS[k] += dtS; continue; }
+      timeS[k] += dtS;
+      if (u) { usableS[k] += dtS; volumeBits[k] += rateBps[i] * dtS; }
     }
-    timeS[k] += dtS;
-    if (usable) {
-      usableS[k] += dtS;
-      volumeBits[k] += rateBps * dtS;
-    }
+  };
+  const one = { k: new Int32Array(1), u: new Uint8Array(1), r: new Float64Array(1), l: new Uint8Array(1) };
+  const addToBin = (k: number, dtS: number, usable: boolean, rateBps: number, mountLimited: boolean) => {
+    one.k[0] = k; one.u[0] = usable ? 1 : 0; one.r[0] = rateBps; one.l[0] = mountLimited ? 1 : 0;
+    addBins(one.k, one.u, one.r, one.l, 1, dtS);
   };
   return {
     binDeg,
@@ -116,12 +121,7 @@ export function createMaskHistogram(options: MaskHistogramOptions = {}): MaskHis
     keyholeS,
     binOf,
     addToBin,
-    addBins(kk, usable, rateBps, limited, n, dtS) {
-      for (let i = 0; i < n; i++) {
-        const k = kk[i];
-        if (k >= 0) addToBin(k, dtS, usable[i] === 1, rateBps[i], limited[i] === 1);
-      }
-    },
+    addBins,
     add(elevationDeg, dtS, usable, rateBps, mountLimited = false) {
       const k = binOf(elevationDeg);
       if (k >= 0) addToBin(k, dtS, usable, rateBps, mountLimited);

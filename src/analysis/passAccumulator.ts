@@ -37,6 +37,8 @@ export interface PassAccumulator {
    */
   addColumns(cols: LinkColumns, from: number, to: number, originS: number, k0: number, dtS: number): void;
   finish(): PassLinkSummary;
+  /** Start over for another pass of the same link and weather cases (an accumulator reused pass after pass). */
+  reset(pass: PassInfo): void;
 }
 
 /** The case columns the summary reads. */
@@ -70,7 +72,8 @@ function findCase(step: StepBudget, state: CaseState): CaseBudget {
 }
 
 export function createPassAccumulator(options: PassAccumulatorOptions): PassAccumulator {
-  const { link, pass } = options;
+  const { link } = options;
+  let pass = options.pass;
   const rule = checkVerdictRule(options.verdictRule ?? DEFAULT_VERDICT_RULE);
   const adaptive = link.modcod.kind === 'adaptive';
   const thresholds = modeThresholdsDB(link);
@@ -101,8 +104,10 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
    */
   function caseColumns(s: CaseState, c: OneCase,  from: number, to: number, originS: number, k0: number, dtS: number): void {
     const margin = c.marginDB, usable = c.usable, rate = c.informationRateBps, es = c.esN0DB;
-    let min = s.minMarginDB, max = s.maxMarginDB, mts = s.marginTimeSum, mt = s.marginTimeS, ms = s.marginSum, mn = s.marginSteps;
-    let us = s.usableS, bits = s.adaptiveBits;
+    // × 1: plain float64 locals (a field read as is would make the loop box every update).
+    let min = s.minMarginDB * 1, max = s.maxMarginDB * 1, mts = s.marginTimeSum * 1, mt = s.marginTimeS * 1, ms = s.marginSum * 1, mn = s.marginSteps;
+    let us = s.usableS * 1, bits = s.adaptiveBits * 1;
+    dtS *= 1;
     for (let i = from; i < to; i++) {
       const m = margin[i];
       if (m === m) {
@@ -132,6 +137,17 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
   }
 
   return {
+    reset(next) {
+      pass = next;
+      for (const s of states) {
+        s.usableStartS = null; s.usableEndS = null; s.usableS = 0; s.minMarginDB = Infinity; s.maxMarginDB = -Infinity;
+        s.marginTimeSum = 0; s.marginSum = 0; s.marginSteps = 0; s.marginTimeS = 0; s.adaptiveBits = 0;
+        s.fit.clear();
+      }
+      steps = 0;
+      lastTimeS = -Infinity;
+      finished = false;
+    },
     add(timeS, dtS, _elevationDeg, step) {
       checkTime(timeS);
       lastTimeS = timeS;

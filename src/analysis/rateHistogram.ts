@@ -90,21 +90,23 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
     store = next;
     base = lo;
   };
-  const add = (cOverN0DBHz: number, dtS: number): void => {
+  const addColumn = (cOverN0DBHz: Float64Array, from: number, to: number, dtS: number): void => {
     if (!(dtS > 0)) return;
-    if (!(cOverN0DBHz >= minDBHz)) {
-      underflowS += dtS;
-      return;
+    for (let i = from; i < to; i++) {
+      const x = cOverN0DBHz[i];
+      if (!(x >= minDBHz)) { underflowS += dtS; continue; }
+      let k = Math.min(bins - 1, Math.floor((x - minDBHz) / binDB));
+      // Settle rounding against the reported edges: the lower edge must not exceed the value.
+      if (k + 1 < bins && edges[k + 1] <= x) k++;
+      if (k > 0 && edges[k] > x) k--;
+      if (k < touchedLo) touchedLo = k;
+      if (k > touchedHi) touchedHi = k;
+      if (k < base || k >= base + store.length) grow(k);
+      store[k - base] += dtS;
     }
-    let k = Math.min(bins - 1, Math.floor((cOverN0DBHz - minDBHz) / binDB));
-    // Settle rounding against the reported edges: the lower edge must not exceed the value.
-    if (k + 1 < bins && edges[k + 1] <= cOverN0DBHz) k++;
-    if (k > 0 && edges[k] > cOverN0DBHz) k--;
-    if (k < touchedLo) touchedLo = k;
-    if (k > touchedHi) touchedHi = k;
-    if (k < base || k >= base + store.length) grow(k);
-    store[k - base] += dtS;
   };
+  const one = new Float64Array(1);
+  const add = (cOverN0DBHz: number, dtS: number): void => { one[0] = cOverN0DBHz; addColumn(one, 0, 1, dtS); };
   return {
     binDB,
     minDBHz,
@@ -123,9 +125,7 @@ export function createRateHistogram(options: RateHistogramOptions = {}): RateHis
       return underflowS;
     },
     add,
-    addColumn(cOverN0DBHz, from, to, dtS) {
-      for (let i = from; i < to; i++) add(cOverN0DBHz[i], dtS);
-    },
+    addColumn,
     exportState() {
       return { binDB, minDBHz, timeS: this.timeS, underflowS };
     },

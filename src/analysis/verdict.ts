@@ -29,7 +29,12 @@ function fmt(x: number): string {
  */
 const sentences = new Map<string, Record<Verdict, string>>();
 
+let lastRule: VerdictRule | null = null;
+let lastSentences: Record<Verdict, string> | null = null;
+
 export function verdictSentences(rule: VerdictRule = DEFAULT_VERDICT_RULE): Readonly<Record<Verdict, string>> {
+  // The same frozen rule again (the default, every pass of a run): its sentences without building the key.
+  if (rule === lastRule && lastSentences && Object.isFrozen(rule)) return lastSentences;
   const key = `${rule.minUsableS}|${rule.minUsableFraction}`;
   let t = sentences.get(key);
   if (!t) {
@@ -41,6 +46,7 @@ export function verdictSentences(rule: VerdictRule = DEFAULT_VERDICT_RULE): Read
     };
     sentences.set(key, t);
   }
+  lastRule = rule; lastSentences = t;
   return t;
 }
 

@@ -5,7 +5,7 @@
  * The evaluators reuse one argument object each, so a call does not allocate.
  */
 import {
-  cosinePowerExponent, cosinePowerGainColumnDBi, cosinePowerGainDBi, parabolicBeamwidthDeg, parabolicGainAtDBi,
+  cosinePowerExponent, cosinePowerGainColumnDBi, cosinePowerGainDBi, cosinePowerGainPairColumnDBi, parabolicBeamwidthDeg, parabolicGainAtDBi,
   parabolicGainDBi, tabulatedGainDBi, validateGainTable,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
@@ -30,6 +30,8 @@ export interface AntennaPattern {
    * `gainAtDBi` costs a dynamic dispatch and a boxed result).
    */
   gainColumnDBi(off: Float64Array, addDeg: number, n: number, out: Float64Array): void;
+  /** gainColumnDBi(off, 0, …) into gain and gainColumnDBi(off, addDeg, …) into gainPlus, in one pass where the pattern allows. */
+  gainPairColumnDBi(off: Float64Array, addDeg: number, n: number, gain: Float64Array, gainPlus: Float64Array): void;
   /** Model name for explain/provenance. */
   source: string;
   /**
@@ -47,14 +49,18 @@ export interface AntennaPattern {
  */
 export function antennaPattern(spec: AntennaSpec, frequencyGHz: number, where = 'antenna'): AntennaPattern {
   try {
-    return buildPattern(spec, frequencyGHz);
+    const p = buildPattern(spec, frequencyGHz);
+    return p.gainPairColumnDBi ? p as AntennaPattern : {
+      ...p,
+      gainPairColumnDBi: (off, add, n, gain, plus) => { p.gainColumnDBi(off, 0, n, gain); p.gainColumnDBi(off, add, n, plus); },
+    };
   } catch (err) {
     if (err instanceof RangeError) throw new InputError(`${where}: ${err.message}`);
     throw err;
   }
 }
 
-function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
+function buildPattern(spec: AntennaSpec, frequencyGHz: number): Omit<AntennaPattern, 'gainPairColumnDBi'> & Partial<Pick<AntennaPattern, 'gainPairColumnDBi'>> {
   const lambdaM = C_M_S / (frequencyGHz * 1e9);
   const equivalent = (peakDBi: number) => ({
     apertureDiameterM: (lambdaM / Math.PI) * Math.sqrt(10 ** (peakDBi / 10) / EQUIVALENT_APERTURE_EFFICIENCY),
@@ -90,6 +96,7 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): AntennaPattern {
         kind: spec.kind, peakGainDBi: spec.peakGainDBi, beamwidthDeg: spec.beamwidthDeg,
         gainAtDBi: (off) => { args.offBoresightDeg = off; return cosinePowerGainDBi(args); },
         gainColumnDBi: (off, add, n, out) => cosinePowerGainColumnDBi(args, off, add, n, out),
+        gainPairColumnDBi: (off, add, n, gain, plus) => cosinePowerGainPairColumnDBi(args, off, add, n, gain, plus),
         source: `G0 + 10 log10(cos^n θ), n = ${n.toFixed(3)} from θ3dB`, ...equivalent(spec.peakGainDBi),
       };
     }

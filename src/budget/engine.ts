@@ -43,7 +43,7 @@ import {
 import { azElSeparationDeg, lineOfSightTeme, spacecraftOffBoresightColumn, unitVector } from './attitude.js';
 import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from './linkColumns.js';
 import { explainStep, type ExplainLine } from './explain.js';
-import { createMountState, resetMount, stepMount, type MountState } from './mount.js';
+import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
 
 export interface LinkEngineOptions {
@@ -91,8 +91,9 @@ export interface LinkEngine {
    * Evaluate a run of steps of one pass, in time order: satellite entries
    * satFrom … satFrom+n−1 (see SatelliteColumns for their times) and station entries
    * 0 … n−1, into `out`. With `full` false only what the summaries need is
-   * filled per case (total attenuation, G/T, C/N0, Es/N0, Eb/N0, margin,
-   * usable, mode, rate); the individual atmospheric and noise terms are not.
+   * filled per case (total attenuation, C/N0, Es/N0, Eb/N0, margin, usable,
+   * mode, rate); the individual atmospheric and noise terms, the required
+   * Eb/N0 of a fixed link and G/T are not (G/T holds its boresight value).
    */
   evaluateColumns(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns, full?: boolean, spacecraftOffBoresightDeg?: Float64Array): LinkColumns;
   /**
@@ -257,22 +258,18 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
   // Scratch columns, grown on demand (held in one object so the loops below take them as locals).
-  const sc = { cap: 0, off: new Float64Array(0), gain: new Float64Array(0), loss: new Float64Array(0), gOff: new Float64Array(0),
-    gGain: new Float64Array(0), gLoss: new Float64Array(0), lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), fixedLoss: new Float64Array(0) };
+  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0) };
   function scratch(n: number): void {
     if (n <= sc.cap) return;
     const cap = Math.max(n, 2 * sc.cap);
     sc.cap = cap;
-    sc.off = new Float64Array(cap); sc.gain = new Float64Array(cap); sc.loss = new Float64Array(cap);
-    sc.gOff = new Float64Array(cap); sc.gGain = new Float64Array(cap); sc.gLoss = new Float64Array(cap);
-    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.fixedLoss = new Float64Array(cap);
+    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap);
   }
 
   /** Spacecraft antenna gain at the off-boresight angle and the pointing loss of the attitude error (≥ 0). */
   function spacecraftGains(off: Float64Array, n: number, gain: Float64Array, loss: Float64Array): void {
-    scAnt.gainColumnDBi(off, 0, n, gain);
-    if (!(scErrDeg > 0)) { loss.fill(0, 0, n); return; }
-    scAnt.gainColumnDBi(off, scErrDeg, n, loss);
+    if (!(scErrDeg > 0)) { scAnt.gainColumnDBi(off, 0, n, gain); loss.fill(0, 0, n); return; }
+    scAnt.gainPairColumnDBi(off, scErrDeg, n, gain, loss);
     for (let i = 0; i < n; i++) {
       const l = gain[i] - loss[i];
       loss[i] = l > 0 ? l : 0;
@@ -292,73 +289,83 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
       }
       return;
     }
-    const peak = gndAnt.peakGainDBi;
+    const peak = gndAnt.peakGainDBi * 1;
+    const lossNoLag = gndLossNoLag * 1, errDeg = gndErrDeg * 1;
     if (!rateLimited) {
       gOffA.fill(0, 0, n); gGainA.fill(peak, 0, n); gLossA.fill(gndLossNoLag, 0, n);
       lagCol.fill(0, 0, n); limCol.fill(0, 0, n);
       return;
     }
-    const t0 = sat.originS, k0 = sat.k0 + satFrom, dt = sat.stepS;
+    stepMountColumn(mount, sat.originS, sat.k0 + satFrom, sat.stepS, az, appEl, n, maxAzRate, maxElRate, lagCol, limCol);
     for (let i = 0; i < n; i++) {
-      stepMount(mount, t0 + (k0 + i) * dt, az[i], appEl[i], maxAzRate, maxElRate);
-      const lag = mount.lagDeg;
-      limCol[i] = mount.limited ? 1 : 0;
-      lagCol[i] = lag;
+      const lag = lagCol[i];
       gOffA[i] = lag;
       gGainA[i] = peak;
-      const total = lag + gndErrDeg;
-      gLossA[i] = lag === 0 ? gndLossNoLag : total > 0 ? Math.max(0, peak - gndAnt.gainAtDBi(total)) : 0;
+      const total = lag + errDeg;
+      gLossA[i] = lag === 0 ? lossNoLag : total > 0 ? Math.max(0, peak - gndAnt.gainAtDBi(total)) : 0;
     }
   }
 
-  /** EIRP, free-space loss, Doppler, the atmospheric elevation and the sum of the elevation-independent losses. */
-  function pathTerms(stn: StationColumns, n: number, out: LinkColumns, txGain: Float64Array, txLoss: Float64Array, rxLoss: Float64Array, fixedLoss: Float64Array): void {
+  /**
+   * EIRP, free-space loss, Doppler, the atmospheric elevation, and the part of
+   * C/N0 that no weather case changes: EIRP − (free-space, polarisation,
+   * pointing and other losses) + (received gain − its boresight value) − k, into `base`.
+   */
+  function pathTerms(stn: StationColumns, n: number, out: LinkColumns, txGain: Float64Array, txLoss: Float64Array, rxLoss: Float64Array, rxGain: Float64Array, base: Float64Array): void {
     const range = stn.rangeKm, rdot = stn.rangeRateKmS, rddot = stn.rangeAccelKmS2, appEl = stn.apparentElevationDeg;
     const atmEl = out.atmosphericElevationDeg, eirpCol = out.eirpDBW, fslCol = out.freeSpaceLossDB;
-    const other = link.otherLossesDB;
-    const txConst = txPowerDBW - txLineLossDB;
+    const other = link.otherLossesDB * 1, pol = polLoss * 1;
+    const txConst = (txPowerDBW - txLineLossDB) * 1;
+    const rxPeak = rxAnt.peakGainDBi * 1, kB = k * 1;
     freeSpaceLossColumnDB(range, f, n, fslCol);
     // Doppler at the carrier: f_r − f_t = −f ṙ/c, rate −f r̈/c (PHYSICS.md §11). The one-way
     // shift is the same to first order whichever end transmits (downlink: as received on the
     // ground; uplink: as the spacecraft sees it).
     dopplerColumns(fHz, rdot, rddot, n, out.dopplerHz, out.dopplerRateHzS);
     for (let i = 0; i < n; i++) {
-      eirpCol[i] = txConst + txGain[i];
+      const eirp = txConst + txGain[i];
+      eirpCol[i] = eirp;
       const e = appEl[i];
       atmEl[i] = e > 90 ? 90 : e > 0 ? e : 0;
-      fixedLoss[i] = fslCol[i] + polLoss + txLoss[i] + rxLoss[i] + other;
+      base[i] = eirp - (fslCol[i] + pol + txLoss[i] + rxLoss[i] + other) + (rxGain[i] - rxPeak) - kB;
     }
   }
 
-  /** One weather case: C/N0, Es/N0, Eb/N0, margin, usable, mode and rate, from the columns filled before. */
-  function caseTerms(c: CaseColumns, n: number, eirpCol: Float64Array, fixedLoss: Float64Array, rxGainCol: Float64Array): void {
-    const rxPeak = rxAnt.peakGainDBi;
+  /**
+   * One weather case: C/N0 = base − atmospheric attenuation + G/T at boresight,
+   * Es/N0, Eb/N0, margin, usable, mode and rate; with `full` also the G/T with
+   * the received gain off boresight and the required Eb/N0 columns.
+   */
+  function caseTerms(c: CaseColumns, n: number, base: Float64Array, rxGainCol: Float64Array, full: boolean): void {
+    const rxPeak = rxAnt.peakGainDBi * 1, rs = rsDB * 1, rb = rbDB * 1, im = impl * 1, rm = reqMargin * 1, br = bitRate * 1;
     const atm = c.atmosphericDB, gt = c.gOverTDBK, cn0Col = c.cOverN0DBHz, esCol = c.esN0DB, ebCol = c.ebN0DB;
     const reqCol = c.requiredEbN0DB, marginCol = c.marginDB, usableCol = c.usable, modeCol = c.mode, rateCol = c.informationRateBps;
-    for (let i = 0; i < n; i++) {
-      const g = gt[i] + (rxGainCol[i] - rxPeak);
-      gt[i] = g;
-      const cn0 = eirpCol[i] - fixedLoss[i] - atm[i] + g - k;
-      cn0Col[i] = cn0;
-      esCol[i] = cn0 - rsDB;
-    }
     if (mc.kind === 'fixed') {
-      const req = mc.requiredEbN0DB;
+      const req = mc.requiredEbN0DB * 1;
       for (let i = 0; i < n; i++) {
-        const ebn0 = cn0Col[i] - rbDB;
+        const cn0 = base[i] - atm[i] + gt[i];
+        cn0Col[i] = cn0;
+        esCol[i] = cn0 - rs;
+        const ebn0 = cn0 - rb;
         ebCol[i] = ebn0;
-        reqCol[i] = req;
-        const margin = ebn0 - req - impl;
+        const margin = ebn0 - req - im;
         marginCol[i] = margin;
-        const usable = margin >= reqMargin;
+        const usable = margin >= rm;
         usableCol[i] = usable ? 1 : 0;
         modeCol[i] = -1;
-        rateCol[i] = usable ? bitRate : 0;
+        rateCol[i] = usable ? br : 0;
       }
+      if (full) { reqCol.fill(req, 0, n); for (let i = 0; i < n; i++) gt[i] += rxGainCol[i] - rxPeak; }
       return;
     }
+    for (let i = 0; i < n; i++) {
+      const cn0 = base[i] - atm[i] + gt[i];
+      cn0Col[i] = cn0;
+      esCol[i] = cn0 - rs;
+    }
+    if (full) for (let i = 0; i < n; i++) gt[i] += rxGainCol[i] - rxPeak;
     // Effective Es/N0 (after the implementation loss) into the margin column, then the mode chosen for it.
-    for (let i = 0; i < n; i++) marginCol[i] = esCol[i] - impl;
+    for (let i = 0; i < n; i++) marginCol[i] = esCol[i] - im;
     modeTable!.chooseColumn(marginCol, n, modeCol);
     for (let i = 0; i < n; i++) {
       const effective = marginCol[i];
@@ -384,17 +391,14 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     out.polarisationLossDB = polLoss;
     out.otherLossesDB = link.otherLossesDB;
     // Spacecraft end (the off-boresight angle may come shared from another link with the same pointing).
-    const sOff = scOffIn ?? sc.off;
-    if (!scOffIn) spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, sc.off);
-    spacecraftGains(sOff, n, sc.gain, sc.loss);
-    groundTerms(sat, satFrom, stn, n, out, sc.gOff, sc.gGain, sc.gLoss);
-    const txOff = downlink ? sOff : sc.gOff, rxOff = downlink ? sc.gOff : sOff;
-    const txGain = downlink ? sc.gain : sc.gGain, rxGain = downlink ? sc.gGain : sc.gain;
-    const txLoss = downlink ? sc.loss : sc.gLoss, rxLoss = downlink ? sc.gLoss : sc.loss;
-    out.txOffBoresightDeg.set(txOff.subarray(0, n)); out.rxOffBoresightDeg.set(rxOff.subarray(0, n));
-    out.txGainDBi.set(txGain.subarray(0, n)); out.rxGainDBi.set(rxGain.subarray(0, n));
-    out.txPointingLossDB.set(txLoss.subarray(0, n)); out.rxPointingLossDB.set(rxLoss.subarray(0, n));
-    pathTerms(stn, n, out, txGain, txLoss, rxLoss, sc.fixedLoss);
+    // Each end's terms go straight into the tx or rx columns it feeds.
+    const scOffCol = downlink ? out.txOffBoresightDeg : out.rxOffBoresightDeg, gOffCol = downlink ? out.rxOffBoresightDeg : out.txOffBoresightDeg;
+    const scGainCol = downlink ? out.txGainDBi : out.rxGainDBi, gGainCol = downlink ? out.rxGainDBi : out.txGainDBi;
+    const scLossCol = downlink ? out.txPointingLossDB : out.rxPointingLossDB, gLossCol = downlink ? out.rxPointingLossDB : out.txPointingLossDB;
+    if (scOffIn) { if (full) for (let i = 0; i < n; i++) scOffCol[i] = scOffIn[i]; } else spacecraftOffBoresightColumn(scPointing, scBoresight, sat, satFrom, stn, n, scOffCol);
+    spacecraftGains(scOffIn ?? scOffCol, n, scGainCol, scLossCol);
+    groundTerms(sat, satFrom, stn, n, out, gOffCol, gGainCol, gLossCol);
+    pathTerms(stn, n, out, out.txGainDBi, out.txPointingLossDB, out.rxPointingLossDB, out.rxGainDBi, sc.base);
     const { lo, hiOff, frac } = sc;
     tableIntervals(table, out.atmosphericElevationDeg, n, lo, hiOff, frac);
     for (let ci = 0; ci < out.cases.length; ci++) {
@@ -407,7 +411,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
         tableTermPairColumn(table, o + TERM.cloud, o + TERM.scintillation, n, lo, hiOff, frac, c.cloudDB, c.scintillationDB);
         tableTermPairColumn(table, o + TERM.antennaTemperatureK, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK, c.systemTemperatureK);
       }
-      caseTerms(c, n, out.eirpDBW, sc.fixedLoss, out.rxGainDBi);
+      caseTerms(c, n, sc.base, out.rxGainDBi, full);
     }
     return out;
   }

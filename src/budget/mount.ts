@@ -103,6 +103,7 @@ export function followAxis(d0: number, v: number, limit: number, h: number, wrap
 }
 
 const axis = new Float64Array(2);
+const one = { t: new Float64Array(1), az: new Float64Array(1), el: new Float64Array(1), lag: new Float64Array(1), lim: new Uint8Array(1) };
 
 /**
  * Advance the mount to time `timeS` with the target at (azDeg, elDeg).
@@ -112,46 +113,73 @@ export function stepMount(
   s: MountState, timeS: number, azDeg: number, elDeg: number,
   maxAzRateDegS: number, maxElRateDegS: number,
 ): MountState {
-  const dt = timeS - s.timeS;
-  if (!s.primed || !(dt >= 0) || dt > MAX_GAP_S) {
-    if (s.primed && dt < 0) {
-      throw new Error(`mount: steps must be in time order within a pass (got ${timeS} after ${s.timeS}; call beginPass() first)`);
-    }
-    s.primed = true;
-    s.timeS = timeS;
-    s.azDeg = wrap360(azDeg); s.elDeg = elDeg;
-    s.targetAzDeg = s.azDeg; s.targetElDeg = elDeg;
-    s.lagDeg = 0; s.limited = false;
-    return s;
-  }
+  one.az[0] = azDeg; one.el[0] = elDeg;
+  stepMountColumn(s, timeS, 0, 0, one.az, one.el, 1, maxAzRateDegS, maxElRateDegS, one.lag, one.lim);
+  return s;
+}
+
+/**
+ * stepMount over a run of steps, entry i at time originS + (k0 + i)·stepS with
+ * the target at (az[i], el[i]); the lag (deg) and the rate-bound flag (1/0)
+ * of each step into lagOut and limitedOut (the state's lagDeg/limited are the
+ * last step's). The loop holds the mount in locals: no call per step unless
+ * an axis is rate-bound.
+ */
+export function stepMountColumn(
+  s: MountState, originS: number, k0: number, stepS: number, az: Float64Array, el: Float64Array, n: number,
+  maxAzRateDegS: number, maxElRateDegS: number, lagOut: Float64Array, limitedOut: Uint8Array,
+): void {
   const azLimit = maxAzRateDegS > 0 && Number.isFinite(maxAzRateDegS) ? maxAzRateDegS : Infinity;
   const elLimit = maxElRateDegS > 0 && Number.isFinite(maxElRateDegS) ? maxElRateDegS : Infinity;
-  const dAzTarget = azimuthDeltaDeg(s.targetAzDeg, azDeg);
-  if (dt > 0 && s.azDeg === s.targetAzDeg && s.elDeg === s.targetElDeg
-    && Math.abs(dAzTarget) <= azLimit * dt && Math.abs(elDeg - s.targetElDeg) <= elLimit * dt) {
-    // On target, and the target within both rates: the mount follows it exactly (followAxis with d0 = 0 and |v| ≤ limit).
-    s.azDeg = wrap360(azDeg); s.elDeg = elDeg;
+  for (let i = 0; i < n; i++) {
+    const timeS = originS + (k0 + i) * stepS;
+    const azDeg = az[i], elDeg = el[i];
+    const dt = timeS - s.timeS;
+    if (!s.primed || !(dt >= 0) || dt > MAX_GAP_S) {
+      if (s.primed && dt < 0) {
+        throw new Error(`mount: steps must be in time order within a pass (got ${timeS} after ${s.timeS}; call beginPass() first)`);
+      }
+      s.primed = true;
+      s.timeS = timeS;
+      s.azDeg = wrap360(azDeg); s.elDeg = elDeg;
+      s.targetAzDeg = s.azDeg; s.targetElDeg = elDeg;
+      s.lagDeg = 0; s.limited = false;
+      lagOut[i] = 0; limitedOut[i] = 0;
+      continue;
+    }
+    // Shortest azimuth difference target(prev) → target, in (−180, 180].
+    let dAzTarget = (azDeg - s.targetAzDeg) % 360;
+    if (dAzTarget > 180) dAzTarget -= 360; else if (dAzTarget <= -180) dAzTarget += 360;
+    const dElTarget = elDeg - s.targetElDeg;
+    if (dt > 0 && s.azDeg === s.targetAzDeg && s.elDeg === s.targetElDeg
+      && (dAzTarget < 0 ? -dAzTarget : dAzTarget) <= azLimit * dt && (dElTarget < 0 ? -dElTarget : dElTarget) <= elLimit * dt) {
+      // On target, and the target within both rates: the mount follows it exactly (followAxis with d0 = 0 and |v| ≤ limit).
+      let w = azDeg % 360;
+      if (w < 0) w += 360;
+      s.azDeg = w; s.elDeg = elDeg;
+      s.timeS = timeS;
+      s.targetAzDeg = w; s.targetElDeg = elDeg;
+      s.lagDeg = 0; s.limited = false;
+      lagOut[i] = 0; limitedOut[i] = 0;
+      continue;
+    }
+    let limited = false;
+    let dAz = 0, dEl = 0;
+    if (dt > 0) {
+      followAxis(azimuthDeltaDeg(s.azDeg, s.targetAzDeg), dAzTarget / dt, azLimit, dt, true, axis);
+      dAz = axis[0]; limited = axis[1] === 1;
+      followAxis(s.targetElDeg - s.elDeg, dElTarget / dt, elLimit, dt, false, axis);
+      dEl = axis[0]; limited = limited || axis[1] === 1;
+    } else {
+      dAz = azimuthDeltaDeg(s.azDeg, azDeg); dEl = elDeg - s.elDeg;
+      limited = dAz !== 0 || dEl !== 0;
+    }
+    s.azDeg = wrap360(azDeg - dAz); s.elDeg = elDeg - dEl;
     s.timeS = timeS;
-    s.targetAzDeg = s.azDeg; s.targetElDeg = elDeg;
-    s.lagDeg = 0; s.limited = false;
-    return s;
+    s.targetAzDeg = wrap360(azDeg); s.targetElDeg = elDeg;
+    s.lagDeg = limited && (dAz !== 0 || dEl !== 0) ? azElSeparationDeg(s.azDeg, s.elDeg, azDeg, elDeg) : 0;
+    // A mount that just caught up ends on target: no lag, but it was rate-bound in the interval.
+    s.limited = limited;
+    lagOut[i] = s.lagDeg; limitedOut[i] = limited ? 1 : 0;
   }
-  let limited = false;
-  let dAz = 0, dEl = 0;
-  if (dt > 0) {
-    followAxis(azimuthDeltaDeg(s.azDeg, s.targetAzDeg), dAzTarget / dt, azLimit, dt, true, axis);
-    dAz = axis[0]; limited = axis[1] === 1;
-    followAxis(s.targetElDeg - s.elDeg, (elDeg - s.targetElDeg) / dt, elLimit, dt, false, axis);
-    dEl = axis[0]; limited = limited || axis[1] === 1;
-  } else {
-    dAz = azimuthDeltaDeg(s.azDeg, azDeg); dEl = elDeg - s.elDeg;
-    limited = dAz !== 0 || dEl !== 0;
-  }
-  s.azDeg = wrap360(azDeg - dAz); s.elDeg = elDeg - dEl;
-  s.timeS = timeS;
-  s.targetAzDeg = wrap360(azDeg); s.targetElDeg = elDeg;
-  s.lagDeg = limited && (dAz !== 0 || dEl !== 0) ? azElSeparationDeg(s.azDeg, s.elDeg, azDeg, elDeg) : 0;
-  // A mount that just caught up ends on target: no lag, but it was rate-bound in the interval.
-  s.limited = limited;
-  return s;
 }

@@ -11,7 +11,7 @@
  */
 import { EARTH_ROTATION_RAD_S, gmstRad } from '../orbit/frames.js';
 import { createStateColumns, type StateColumns } from '../orbit/interpolated.js';
-import { apparentElevationDeg } from './refraction.js';
+import { apparentElevationColumn } from './refraction.js';
 
 const DEG = Math.PI / 180;
 /** WGS-72 constants that SGP4 itself uses (Vallado et al. AIAA 2006-6753): μ (km³/s²), Earth radius (km), J2. */
@@ -134,7 +134,6 @@ export function stationLook(frame: StationFrame, s: SatelliteColumns, from: numb
     const rdot = (dx * s.evx[i] + dy * s.evy[i] + dz * s.evz[i]) / rho;
     out.azimuthDeg[o] = az;
     out.elevationDeg[o] = el;
-    out.apparentElevationDeg[o] = apparentElevationDeg(heightKm, el);
     out.rangeKm[o] = rho;
     out.rangeRateKmS[o] = rdot;
     out.rangeAccelKmS2[o] = (s.v2[i] + dx * s.eax[i] + dy * s.eay[i] + dz * s.eaz[i] - rdot * rdot) / rho;
@@ -144,4 +143,5 @@ export function stationLook(frame: StationFrame, s: SatelliteColumns, from: numb
     out.losY[o] = -(sn * dx + c * dy) / rho;
     out.losZ[o] = -dz / rho;
   }
+  apparentElevationColumn(heightKm, out.elevationDeg, to - from, out.apparentElevationDeg);
 }

@@ -27,6 +27,24 @@ export function maskElevationDeg(mask: HorizonMask, azimuthDeg: number): number 
   return a[1] + w * (b[1] - a[1]);
 }
 
+/** Highest elevation anywhere on the mask (deg). */
+export function maskMaximumDeg(mask: HorizonMask): number {
+  return mask.kind === 'constant' ? mask.elevationDeg : Math.max(...mask.points.map((p) => p[1]));
+}
+
+/** Steepest slope of the mask (deg of elevation per deg of azimuth), 0 for a constant mask. */
+export function maskSlopeDegPerDeg(mask: HorizonMask): number {
+  if (mask.kind === 'constant' || mask.points.length < 2) return 0;
+  const p = mask.points;
+  let s = 0;
+  for (let i = 0; i < p.length; i++) {
+    const a = p[i], b = p[(i + 1) % p.length];
+    const da = i + 1 < p.length ? b[0] - a[0] : b[0] + 360 - a[0];
+    if (da > 0) s = Math.max(s, Math.abs(b[1] - a[1]) / da);
+  }
+  return s;
+}
+
 /** Lowest elevation anywhere on the mask (deg). */
 export function maskMinimumDeg(mask: HorizonMask): number {
   return mask.kind === 'constant' ? mask.elevationDeg : Math.min(...mask.points.map((p) => p[1]));

@@ -23,6 +23,18 @@ export const REFRACTION_FLOOR_GEOMETRIC_DEG = -1;
  * by fixed-point iteration (|dτ/dθ0| < 0.5 for θ0 ≥ −1°, so it contracts).
  */
 export function apparentElevationDeg(heightKm: number, geometricElevationDeg: number): number {
+  one[0] = geometricElevationDeg;
+  apparentElevationColumn(heightKm, one, 1, one);
+  return one[0];
+}
+const one = new Float64Array(1);
+
+/** apparentElevationDeg for geometric elevations el[0 … n−1] at one station height, into out (may be el). */
+export function apparentElevationColumn(heightKm: number, el: Float64Array, n: number, out: Float64Array): void {
+  for (let i = 0; i < n; i++) out[i] = apparent(heightKm, el[i]);
+}
+
+function apparent(heightKm: number, geometricElevationDeg: number): number {
   const hk = Math.max(0, heightKm);
   const g = Math.max(geometricElevationDeg, REFRACTION_FLOOR_GEOMETRIC_DEG);
   let app = g + refractionDeg(hk, Math.max(g, 0));

@@ -36,6 +36,8 @@ export interface StationGeometry {
   sample(orbit: StateSource, timeS: number, out: GeometrySample): GeometrySample;
   /** Elevation minus mask at `timeS` (deg; ≥ 0 means visible), for the event search. */
   elevationMinusMask(orbit: StateSource, timeS: number): number;
+  /** The same from the satellite's Earth-fixed position (km), computed once for several stations. */
+  elevationMinusMaskEcef(x: number, y: number, z: number): number;
   /** Azimuth, elevation, range and range rate at `timeS` (no refraction), into `out`. */
   look(orbit: StateSource, timeS: number, out: LookAngles): LookAngles;
 }
@@ -89,14 +91,23 @@ export function createStationGeometry(input: Station): StationGeometry {
     enu[2] = cp * cl * dx + cp * sl * dy + sp * dz;
   }
 
-  function elevationMinusMask(orbit: StateSource, t: number): number {
-    topocentric(orbit, t);
-    const e = enu[0]; const n = enu[1];
-    let el = Math.atan2(enu[2], Math.sqrt(e * e + n * n)) / DEG;
+  function elevationMinusMaskEcef(x: number, y: number, z: number): number {
+    const dx = x - ecef[0], dy = y - ecef[1], dz = z - ecef[2];
+    const e = -sl * dx + cl * dy;
+    const n = -sp * cl * dx - sp * sl * dy + cp * dz;
+    const u = cp * cl * dx + cp * sl * dy + sp * dz;
+    let el = Math.atan2(u, Math.sqrt(e * e + n * n)) / DEG;
     if (onApparent) el = apparentElevationDeg(hKm, el);
     if (isConstant) return el - constantMask;
     const az = Math.atan2(e, n) / DEG;
     return el - maskElevationDeg(mask, az < 0 ? az + 360 : az);
+  }
+
+  function elevationMinusMask(orbit: StateSource, t: number): number {
+    orbit.stateTeme(t, rT, vT);
+    const g = gmstRad(t);
+    const c = Math.cos(g); const s = Math.sin(g);
+    return elevationMinusMaskEcef(c * rT[0] + s * rT[1], -s * rT[0] + c * rT[1], rT[2]);
   }
 
   function look(orbit: StateSource, t: number, out: LookAngles): LookAngles {
@@ -151,5 +162,5 @@ export function createStationGeometry(input: Station): StationGeometry {
     return out;
   }
 
-  return { station, ecefKm: ecef, frame, sample, elevationMinusMask, look };
+  return { station, ecefKm: ecef, frame, sample, elevationMinusMask, elevationMinusMaskEcef, look };
 }

@@ -64,27 +64,55 @@ export const COSINE_POWER_FLOOR_BELOW_PEAK_DB = 30;
  * the floor also applies for θ ≥ 90° (broad-beam model; common practice).
  */
 export function cosinePowerGainDBi(a: { peakGainDBi: number; exponent: number; offBoresightDeg: number; floorGainDBi?: number }): number {
-  const floor = a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB;
-  return cosinePowerDB(a.peakGainDBi, (10 * a.exponent) / Math.LN10, floor, a.offBoresightDeg);
+  one[0] = a.offBoresightDeg;
+  cosinePowerGainColumnDBi(a, one, 0, 1, one);
+  return one[0];
 }
+const one = new Float64Array(1);
 
-/** The cosine-power gain with its constants worked out: peak + c ln(cos θ), c = 10 n / ln 10, floored. */
-function cosinePowerDB(peak: number, c: number, floor: number, offDeg: number): number {
-  const th = offDeg < 0 ? -offDeg : offDeg;
-  if (th >= 90) return floor;
-  // 10 n log10(cos θ) through Math.log (several times cheaper than Math.log10 in V8; equal to ~1 ulp).
-  const g = peak + c * Math.log(Math.cos(th * DEG));
-  return g > floor ? g : floor;
-}
-
-/** cosinePowerGainDBi at off[i] + addDeg for i < n, into out (the same formula, looped). */
+/** cosinePowerGainDBi at off[i] + addDeg for i < n, into out (out may be off). */
 export function cosinePowerGainColumnDBi(
   a: { peakGainDBi: number; exponent: number; floorGainDBi?: number }, off: Float64Array, addDeg: number, n: number, out: Float64Array,
 ): void {
-  const floor = a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB;
+  // × 1: a plain float64 for the loop (an optional field read as is would make every result a boxed number).
+  const floor = (a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB) * 1;
+  // 10 n log10(cos θ) = c ln(cos θ), c = 10 n / ln 10: Math.log is several times cheaper than Math.log10 in V8 (equal to ~1 ulp).
   const c = (10 * a.exponent) / Math.LN10;
-  const peak = a.peakGainDBi;
-  for (let i = 0; i < n; i++) out[i] = cosinePowerDB(peak, c, floor, off[i] + addDeg);
+  const peak = a.peakGainDBi * 1;
+  for (let i = 0; i < n; i++) {
+    const x = off[i] + addDeg;
+    const th = x < 0 ? -x : x;
+    const g = th >= 90 ? floor : peak + c * Math.log(Math.cos(th * DEG));
+    out[i] = g > floor ? g : floor;
+  }
+}
+
+/**
+ * cosinePowerGainDBi at off[i] and at off[i] + addDeg (addDeg ≥ 0, off[i] in
+ * 0–180°), into gainOut and gainPlusOut: the second cosine from the angle-sum
+ * identity cos(θ+ε) = cos θ cos ε − sin θ sin ε with sin θ = √(1 − cos² θ)
+ * (one cosine per step instead of two; equal to rounding).
+ */
+export function cosinePowerGainPairColumnDBi(
+  a: { peakGainDBi: number; exponent: number; floorGainDBi?: number }, off: Float64Array, addDeg: number, n: number,
+  gainOut: Float64Array, gainPlusOut: Float64Array,
+): void {
+  const floor = (a.floorGainDBi ?? a.peakGainDBi - COSINE_POWER_FLOOR_BELOW_PEAK_DB) * 1;
+  const c = (10 * a.exponent) / Math.LN10;
+  const peak = a.peakGainDBi * 1;
+  const ce = Math.cos(addDeg * DEG), se = Math.sin(addDeg * DEG);
+  for (let i = 0; i < n; i++) {
+    const x = off[i];
+    const th = x < 0 ? -x : x;
+    if (th >= 90) { gainOut[i] = floor; gainPlusOut[i] = floor; continue; }
+    const ct = Math.cos(th * DEG);
+    const g = peak + c * Math.log(ct);
+    gainOut[i] = g > floor ? g : floor;
+    if (th + addDeg >= 90) { gainPlusOut[i] = floor; continue; }
+    const cp = ct * ce - Math.sqrt(1 - ct * ct) * se;
+    const gp = peak + c * Math.log(cp);
+    gainPlusOut[i] = gp > floor ? gp : floor;
+  }
 }
 
 export interface GainTable { offBoresightDeg: number[]; gainDBi: number[] }

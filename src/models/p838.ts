@@ -31,8 +31,23 @@ const AV: Coeffs = {
 
 function fit(c: Coeffs, lf: number): number {
   let s = 0;
-  for (const [a, b, w] of c.terms) s += a * Math.exp(-(((lf - b) / w) ** 2));
+  for (let j = 0; j < c.terms.length; j++) {
+    const t = c.terms[j];
+    s += t[0] * Math.exp(-(((lf - t[1]) / t[2]) ** 2));
+  }
   return s + c.m * lf + c.c;
+}
+
+/** kH, kV, αH, αV at the last frequency asked for: a table of one link evaluates them at one frequency, many times. */
+const last = { f: NaN, kH: NaN, kV: NaN, aH: NaN, aV: NaN };
+function coefficientsAt(frequencyGHz: number): typeof last {
+  if (frequencyGHz !== last.f) {
+    const lf = Math.log10(frequencyGHz);
+    last.kH = 10 ** fit(KH, lf); last.kV = 10 ** fit(KV, lf);
+    last.aH = fit(AH, lf); last.aV = fit(AV, lf);
+    last.f = frequencyGHz;
+  }
+  return last;
 }
 
 export interface RainCoefficients { k: number; alpha: number }
@@ -43,9 +58,7 @@ export function rainSpecificCoefficients(a: { frequencyGHz: number; elevationDeg
   checkRange(fn, 'frequencyGHz', a.frequencyGHz, P838_VALIDITY.frequencyGHz, 'GHz');
   checkRange(fn, 'elevationDeg', a.elevationDeg, P838_VALIDITY.elevationDeg, 'deg');
   checkRange(fn, 'tiltDeg', a.tiltDeg, [-180, 180], 'deg');
-  const lf = Math.log10(a.frequencyGHz);
-  const kH = 10 ** fit(KH, lf), kV = 10 ** fit(KV, lf);
-  const aH = fit(AH, lf), aV = fit(AV, lf);
+  const { kH, kV, aH, aV } = coefficientsAt(a.frequencyGHz);
   const cos2 = Math.cos(a.elevationDeg * DEG) ** 2 * Math.cos(2 * a.tiltDeg * DEG);
   const k = (kH + kV + (kH - kV) * cos2) / 2;
   const alpha = (kH * aH + kV * aV + (kH * aH - kV * aV) * cos2) / (2 * k);

@@ -252,9 +252,15 @@ export function interpolatedOrbit(propagator: Propagator, options: InterpolatedO
         continue;
       }
       loadStencil(j);
-      const gw = gridWeights[o];
-      rx[i] = combine(gw, 0); ry[i] = combine(gw, 1); rz[i] = combine(gw, 2);
-      vx[i] = combine(gw, 3); vy[i] = combine(gw, 4); vz[i] = combine(gw, 5);
+      // The six weighted sums written out (a call per component would box each result).
+      const w = gridWeights[o], s = stencil;
+      const w0 = w[0], w1 = w[1], w2 = w[2], w3 = w[3], w4 = w[4], w5 = w[5], w6 = w[6], w7 = w[7];
+      rx[i] = w0 * s[0] + w1 * s[6] + w2 * s[12] + w3 * s[18] + w4 * s[24] + w5 * s[30] + w6 * s[36] + w7 * s[42];
+      ry[i] = w0 * s[1] + w1 * s[7] + w2 * s[13] + w3 * s[19] + w4 * s[25] + w5 * s[31] + w6 * s[37] + w7 * s[43];
+      rz[i] = w0 * s[2] + w1 * s[8] + w2 * s[14] + w3 * s[20] + w4 * s[26] + w5 * s[32] + w6 * s[38] + w7 * s[44];
+      vx[i] = w0 * s[3] + w1 * s[9] + w2 * s[15] + w3 * s[21] + w4 * s[27] + w5 * s[33] + w6 * s[39] + w7 * s[45];
+      vy[i] = w0 * s[4] + w1 * s[10] + w2 * s[16] + w3 * s[22] + w4 * s[28] + w5 * s[34] + w6 * s[40] + w7 * s[46];
+      vz[i] = w0 * s[5] + w1 * s[11] + w2 * s[17] + w3 * s[23] + w4 * s[29] + w5 * s[35] + w6 * s[41] + w7 * s[47];
     }
   }
 

@@ -13,7 +13,7 @@
  */
 import type { ElementSet } from '../elements/types.js';
 import { InputError } from '../errors.js';
-import { maskMinimumDeg } from '../geometry/mask.js';
+import { maskMaximumDeg, maskMinimumDeg, maskSlopeDegPerDeg } from '../geometry/mask.js';
 import { createStationGeometry, type LookAngles, type StateSource, type StationGeometry } from '../geometry/station.js';
 import type { Station } from '../geometry/types.js';
 import { exactOrbit, interpolatedOrbit, type OrbitSource } from '../orbit/interpolated.js';
@@ -21,7 +21,7 @@ import { createPropagator, type Propagator } from '../orbit/propagator.js';
 import {
   assembleCrossings, findMaximum, findRoot, scanGrid, scanEvents, type Crossing, type CrossingEvent, type ScanGrid,
 } from './search.js';
-import { passScanStepS } from './scanstep.js';
+import { belowMaskRateBoundDegS, passScanStepS } from './scanstep.js';
 import type { Pass } from './types.js';
 
 export interface FindPassesOptions {
@@ -43,6 +43,8 @@ export interface FindPassesOptions {
 }
 
 export const DEFAULT_EVENT_TOLERANCE_S = 0.0005;
+/** Half-width of the first bracket of the peak-elevation search, around TCA (s). */
+const PEAK_NEAR_TCA_S = 5;
 
 /** The orbit a run uses for one element set: nodes tied to the grid (startS, stepS), or SGP4 at every instant. */
 export function createOrbit(elements: ElementSet | Propagator, grid: { startS: number; stepS: number }, exact = false): OrbitSource {
@@ -50,12 +52,16 @@ export function createOrbit(elements: ElementSet | Propagator, grid: { startS: n
   return exact ? exactOrbit(prop, grid.startS, grid.stepS) : interpolatedOrbit(prop, { originS: grid.startS, stepS: grid.stepS });
 }
 
-/** Scan step on the orbit's nodes: the rule's step rounded down to a multiple of the node spacing, or to a divisor of it. */
+/**
+ * Scan step on the orbit's nodes: the rule's step rounded down to a multiple
+ * of the node spacing, or, when it is shorter than the spacing, to a divisor
+ * of it; within 10 % of the spacing the spacing itself (the rule's tenth of a
+ * central pass is a margin, not a limit: a ninth keeps g unimodal as well).
+ */
 export function nodeScanStepS(ruleStepS: number, nodeSpacingS: number): number {
   if (!Number.isFinite(nodeSpacingS)) return ruleStepS;
-  return ruleStepS >= nodeSpacingS
-    ? Math.floor(ruleStepS / nodeSpacingS + 1e-9) * nodeSpacingS
-    : nodeSpacingS / Math.ceil(nodeSpacingS / ruleStepS - 1e-9);
+  if (ruleStepS >= 0.9 * nodeSpacingS) return Math.max(1, Math.floor(ruleStepS / nodeSpacingS + 1e-9)) * nodeSpacingS;
+  return nodeSpacingS / Math.ceil(nodeSpacingS / ruleStepS - 1e-9);
 }
 
 /** One station's search over a window: the pieces are searched with `events`, joined with `assemblePasses`. */
@@ -64,8 +70,8 @@ export interface PassSearch {
   geo: StationGeometry;
   grid: ScanGrid;
   toleranceS: number;
-  /** Events of scan intervals [i0, i1) (see search.ts scanEvents). */
-  events(i0: number, i1: number): { events: CrossingEvent[]; firstAbove: boolean };
+  /** Events of scan intervals [i0, i1) (see search.ts scanEvents); `samples(i)`: g at scan time i when the caller has it. */
+  events(i0: number, i1: number, samples?: (i: number) => number): { events: CrossingEvent[]; firstAbove: boolean };
   /** Scan indices [i0, i1) whose sample times lie in [fromS, toS) (the last piece takes toS = endS inclusive). */
   range(fromS: number, toS: number): [number, number];
 }
@@ -79,9 +85,11 @@ export function passSearch(orbit: OrbitSource, station: Station, startS: number,
   const step = opts.scanStepS ?? nodeScanStepS(passScanStepS(orbit.elements, maskMinimumDeg(geo.station.mask)), orbit.nodeSpacingS);
   const grid = scanGrid(startS, endS, step);
   const g = (t: number) => geo.elevationMinusMask(orbit, t);
+  const mask = geo.station.mask;
+  const rate = belowMaskRateBoundDegS(orbit.elements, geo.station.heightM / 1000, maskMaximumDeg(mask), maskSlopeDegPerDeg(mask));
   return {
     orbit, geo, grid, toleranceS: tol,
-    events: (i0, i1) => scanEvents(g, grid, i0, i1, tol),
+    events: (i0, i1, samples) => scanEvents(g, grid, i0, i1, tol, rate, samples),
     range(fromS, toS) {
       const idx = (t: number) => Math.min(grid.n, Math.max(0, Math.ceil((t - startS) / step - 1e-9)));
       return [idx(fromS), toS >= endS ? grid.n : idx(toS)];
@@ -109,7 +117,6 @@ export function completePass(
   const rangeRate = (t: number) => geo.look(orbit, t, la).rangeRateKmS;
   const range = (t: number) => geo.look(orbit, t, la).rangeKm;
   const azimuth = (t: number) => geo.look(orbit, t, la).azimuthDeg;
-  const peak = findMaximum(elevation, c.startS, c.endS, toleranceS);
   const ra = rangeRate(c.startS), rb = rangeRate(c.endS);
   let tcaS: number;
   if (ra < 0 && rb > 0) tcaS = findRoot(rangeRate, c.startS, c.endS, ra, rb, toleranceS);
@@ -117,6 +124,13 @@ export function completePass(
   else if (ra <= 0 && rb <= 0) tcaS = c.endS;
   else tcaS = range(c.startS) <= range(c.endS) ? c.startS : c.endS; // receding then approaching: the nearer end
   const tca = { timeS: tcaS, value: -range(tcaS) };
+  // The peak elevation is within a fraction of a second of TCA (exactly at it on a sphere at constant
+  // height): search ±PEAK_NEAR_TCA_S around it first, the whole pass when the maximum is at that bracket's edge.
+  const lo = Math.max(c.startS, tcaS - PEAK_NEAR_TCA_S), hi = Math.min(c.endS, tcaS + PEAK_NEAR_TCA_S);
+  let peak = findMaximum(elevation, lo, hi, toleranceS);
+  if ((lo > c.startS && peak.timeS - lo < 2 * toleranceS) || (hi < c.endS && hi - peak.timeS < 2 * toleranceS)) {
+    peak = findMaximum(elevation, c.startS, c.endS, toleranceS);
+  }
   return {
     index,
     satellite: orbit.elements.name,

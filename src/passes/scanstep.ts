@@ -40,3 +40,28 @@ export function centralPassDurationS(elements: ElementSet, minElevationDeg: numb
 export function passScanStepS(elements: ElementSet, minElevationDeg: number): number {
   return Math.min(300, Math.max(5, centralPassDurationS(elements, minElevationDeg) / 10));
 }
+
+const OMEGA_EARTH_RAD_S = 7.292115e-5;
+
+/**
+ * An upper bound (deg/s) of |d(elevation − mask)/dt| while the satellite is
+ * below the mask (elevation < the mask's highest point ε_m): the line of
+ * sight turns at most at |v|/ρ, with |v| ≤ the perigee speed plus the Earth's
+ * rotation at apogee radius (the Earth-fixed velocity), and ρ at least the
+ * slant range at elevation ε_m to an altitude 10 % below perigee height (a
+ * margin for drag); the mask's own change adds its steepest slope S (deg per
+ * deg of azimuth) times the azimuth rate, ≤ (|v|/ρ)/cos ε_m; 5 % on top for
+ * refraction when the mask is on apparent elevation. The pass search uses it
+ * to skip maxima below the mask that cannot reach it (search.ts).
+ */
+export function belowMaskRateBoundDegS(elements: ElementSet, stationHeightKm: number, maskMaxDeg: number, maskSlopeDegPerDeg: number): number {
+  const n = (elements.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
+  const e = elements.eccentricity;
+  const a = Math.cbrt(MU_KM3_S2 / (n * n));
+  const vMax = Math.sqrt((MU_KM3_S2 * (1 + e)) / (a * (1 - e))) + OMEGA_EARTH_RAD_S * a * (1 + e);
+  const h = Math.max(50, 0.9 * (a * (1 - e) - R_KM) - Math.max(0, stationHeightKm));
+  const em = Math.min(89, Math.max(0, maskMaxDeg)) * DEG;
+  const rho = Math.sqrt((R_KM + h) ** 2 - (R_KM * Math.cos(em)) ** 2) - R_KM * Math.sin(em);
+  const losRate = vMax / rho;
+  return 1.05 * (losRate / DEG) * (1 + maskSlopeDegPerDeg / Math.cos(em));
+}

@@ -116,10 +116,13 @@ export interface CrossingEvent { t: number; dir: 1 | -1 }
  * share its side of zero but whose bracketed extremum crosses it. Pieces
  * [0, a), [a, b), …, [z, n) together give exactly the events of the whole grid.
  * `rateBound` (an upper bound of |dg/dt| per second, default none) lets the
- * extremum searches stop, or not start, where no crossing can hide.
+ * extremum searches stop, or not start, where no crossing can hide;
+ * `samples(i)`, when given, is g at scan time i computed by the caller (e.g.
+ * shared by several stations).
  */
 export function scanEvents(
   g: (t: number) => number, grid: ScanGrid, i0: number, i1: number, toleranceS: number, rateBound = Infinity,
+  samples?: (i: number) => number,
 ): { events: CrossingEvent[]; firstAbove: boolean } {
   if (!(toleranceS > 0)) throw new RangeError('findCrossings: scan step and tolerance must be > 0');
   const { n } = grid;
@@ -129,7 +132,7 @@ export function scanEvents(
   const G = new Float64Array(hi - lo + 1);
   for (let i = lo; i <= hi; i++) {
     T[i - lo] = scanTime(grid, i);
-    G[i - lo] = g(T[i - lo]);
+    G[i - lo] = samples ? samples(i) : g(T[i - lo]);
   }
   const events: CrossingEvent[] = [];
   for (let i = i0; i < Math.min(i1, n); i++) {

@@ -68,6 +68,8 @@ interface LinkRun {
   link: LinkSpec;
   engine: LinkEngine;
   station: string;
+  /** Finished pass accumulators of this link, to be reset and reused. */
+  accPool: PassAccumulator[];
   daily: DailyAccumulator[]; // per case
   mask: MaskHistogram[]; // per case
   rate: (RateHistogram | null)[]; // per case
@@ -128,7 +130,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length] });
       engines.push(engine);
       // Accumulators (made at the first chunk) live as long as the sweeper; each chunk takes (and empties) its share.
-      return { link, engine, station: st.entry.station.name, daily: [], mask: [], rate: [], envelope: [] };
+      return { link, engine, station: st.entry.station.name, accPool: [], daily: [], mask: [], rate: [], envelope: [] };
     });
     const [rank0, rank1] = stationRank(scenario.network, st.entry.station.name, st.entry.priority);
     return {
@@ -177,7 +179,11 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
     // Network contact = a maximal run of grid times with at least one station in view (a group).
     const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
-    const netChosen = { usable: new Uint8Array(WINDOW_STEPS), rate: new Float64Array(WINDOW_STEPS), es: new Float64Array(WINDOW_STEPS), from: new Int32Array(WINDOW_STEPS) };
+    const netChosen = {
+      usable: new Uint8Array(WINDOW_STEPS), any: new Uint8Array(WINDOW_STEPS), rate: new Float64Array(WINDOW_STEPS), margin: new Float64Array(WINDOW_STEPS),
+      es: new Float64Array(WINDOW_STEPS), from: new Int32Array(WINDOW_STEPS), index: new Int32Array(WINDOW_STEPS),
+      rank0: new Float64Array(WINDOW_STEPS), rank1: new Float64Array(WINDOW_STEPS),
+    };
 
     const T = o.timings;
     let clock = T ? performance.now() : 0;
@@ -193,16 +199,15 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const run: ItemRun = {
         item: it, pass, st, acc: [], series: [], seriesEvery: Math.max(1, Math.ceil(expected / seriesMax)), seriesCount: st.links.map(() => 0),
       };
+      const info = {
+        passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
+        maxElevationDeg: pass.maxElevationDeg, durationS: pass.durationS, clippedStart: pass.clippedStart, clippedEnd: pass.clippedEnd,
+      };
       for (const lr of st.links) {
         lr.engine.beginPass();
-        run.acc.push(createPassAccumulator({
-          link: lr.link,
-          pass: {
-            passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
-            maxElevationDeg: pass.maxElevationDeg, durationS: pass.durationS, clippedStart: pass.clippedStart, clippedEnd: pass.clippedEnd,
-          },
-          weatherCases: cases,
-        }));
+        const reused = lr.accPool.pop();
+        if (reused) reused.reset(info);
+        run.acc.push(reused ?? createPassAccumulator({ link: lr.link, pass: info, weatherCases: cases }));
         run.series.push(o.collectSeries && it.seriesLinks?.includes(lr.link.name) ? {
           passId: it.passId, link: lr.link.name, timeS: [], azimuthDeg: [], elevationDeg: [],
           cases: cases.map((c) => ({ weather: c.name, marginDB: [], ebN0DB: [] })),
@@ -213,6 +218,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     const end = (run: ItemRun) => {
       run.st.links.forEach((lr, l) => {
         const summary = run.acc[l].finish();
+        lr.accPool.push(run.acc[l]);
         passTable.push(summary);
         summary.cases.forEach((c, ci) => lr.daily[ci].endPass(run.pass.aosS, c.verdict));
         const s = run.series[l];
@@ -286,50 +292,48 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             const x = cands[0], l = cl[0];
             const c = x.slot.cols[l].cases[ci];
             if (Number.isNaN(nc.startS)) nc.startS = startS + x.k0 * stepS;
-            let used = 0;
-            for (let i = 0; i < x.n; i++) { nc.aboveS += stepS; if (c.usable[i] === 1) used++; }
-            daily.addColumns(startS, x.k0, stepS, 0, x.n, c.usable, c.informationRateBps, c.esN0DB, x.run.st.links[l].link, true);
-            for (let q = 0; q < used; q++) nc.usableS += stepS;
-            if (used > 0) nc.any = true;
+            let above = nc.aboveS * 1, used = nc.usableS * 1, any = false;
+            const usable = c.usable, dt = stepS * 1;
+            for (let i = 0; i < x.n; i++) { above += dt; if (usable[i] === 1) { used += dt; any = true; } }
+            nc.aboveS = above; nc.usableS = used; if (any) nc.any = true;
+            daily.addColumns(startS, x.k0, stepS, 0, x.n, usable, c.informationRateBps, c.esN0DB, x.run.st.links[l].link, true);
             continue;
           }
-          // Several stations: per grid time the one the rule picks, gathered into columns and fed to the
-          // network's daily accumulator a run of equal links at a time.
+          // Several stations: per grid time the one the rule picks (candidates in order, each over its own
+          // steps, a later one taking a step only when it outranks the best so far: the rule's tie-breaks),
+          // gathered into columns and fed to the network's daily accumulator a run of equal links at a time.
           const nw = w1 - w0;
           const chosen = netChosen;
           chosen.usable.fill(0, 0, nw);
-          for (let k = w0; k < w1; k++) {
-            let any = false;
-            let best = -1, bi = -1;
-            for (let a = 0; a < cands.length; a++) {
-              const x = cands[a];
-              const i = k - x.k0;
-              if (i < 0 || i >= x.n) continue;
-              any = true;
-              const c = x.slot.cols[cl[a]].cases[ci];
-              const m = c.marginDB[i];
-              if (!networkEligible(policy, c.usable[i] === 1, m)) continue;
-              if (best >= 0) {
-                const y = cands[best];
-                const bc = y.slot.cols[cl[best]].cases[ci];
-                if (!networkOutranks(policy, c.informationRateBps[i], m, x.run.st.rank0, x.run.st.rank1,
-                  bc.informationRateBps[bi], bc.marginDB[bi], y.run.st.rank0, y.run.st.rank1)) continue;
-              }
-              best = a; bi = i;
+          chosen.any.fill(0, 0, nw);
+          chosen.from.fill(-1, 0, nw);
+          for (let a = 0; a < cands.length; a++) {
+            const x = cands[a];
+            const c = x.slot.cols[cl[a]].cases[ci];
+            const usable = c.usable, margin = c.marginDB, rate = c.informationRateBps;
+            const r0 = x.run.st.rank0, r1 = x.run.st.rank1;
+            const off = x.k0 - w0;
+            for (let i = 0; i < x.n; i++) {
+              const q = off + i;
+              chosen.any[q] = 1;
+              const m = margin[i];
+              if (!networkEligible(policy, usable[i] === 1, m)) continue;
+              const r = rate[i];
+              const f = chosen.from[q];
+              if (f >= 0 && !networkOutranks(policy, r, m, r0, r1, chosen.rate[q], chosen.margin[q], chosen.rank0[q], chosen.rank1[q])) continue;
+              chosen.from[q] = a; chosen.index[q] = i; chosen.rate[q] = r; chosen.margin[q] = m; chosen.rank0[q] = r0; chosen.rank1[q] = r1;
             }
-            const q = k - w0;
-            chosen.from[q] = best;
-            if (!any) continue;
-            if (Number.isNaN(nc.startS)) nc.startS = startS + k * stepS;
+          }
+          for (let q = 0; q < nw; q++) {
+            if (chosen.any[q] !== 1) continue;
+            if (Number.isNaN(nc.startS)) nc.startS = startS + (w0 + q) * stepS;
             nc.aboveS += stepS;
-            if (best >= 0) {
-              const c = cands[best].slot.cols[cl[best]].cases[ci];
-              chosen.usable[q] = 1;
-              chosen.rate[q] = c.informationRateBps[bi];
-              chosen.es[q] = c.esN0DB[bi];
-              nc.usableS += stepS;
-              nc.any = true;
-            }
+            const f = chosen.from[q];
+            if (f < 0) continue;
+            chosen.usable[q] = 1;
+            chosen.es[q] = cands[f].slot.cols[cl[f]].cases[ci].esN0DB[chosen.index[q]];
+            nc.usableS += stepS;
+            nc.any = true;
           }
           for (let q = 0; q < nw;) {
             if (chosen.usable[q] !== 1) { q++; continue; }

@@ -17,7 +17,8 @@
  * chunk, so floating-point sums and output files are the same for any number
  * of worker threads.
  */
-import { assembleCrossings, type Crossing, type CrossingEvent } from '../passes/search.js';
+import { assembleCrossings, scanTime, type Crossing, type CrossingEvent } from '../passes/search.js';
+import { gmstRad } from '../orbit/frames.js';
 import { passSearch, type PassSearch } from '../passes/find.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
@@ -72,15 +73,38 @@ export interface PassSearcher {
 export function createPassSearcher(scenario: ResolvedScenario, layout: SatelliteLayout, orbit: OrbitSource): PassSearcher {
   const { startS, endS } = scenario.window;
   const searches: PassSearch[] = layout.stations.map((st) => passSearch(orbit, st.entry.station, startS, endS));
+  // Stations on the same scan grid share the satellite's Earth-fixed position at each scan time.
+  const shared = new Map<number, { lo: number; hi: number; x: Float64Array; y: Float64Array; z: Float64Array }>();
+  const r = new Float64Array(3), v = new Float64Array(3);
+  const positions = (s: PassSearch, i0: number, i1: number) => {
+    const step = s.grid.stepS;
+    const lo = Math.max(0, i0 - 1), hi = Math.min(s.grid.n, i1 + 1);
+    let p = shared.get(step);
+    if (!p || p.lo !== lo || p.hi !== hi) {
+      const n = hi - lo + 1;
+      p = { lo, hi, x: new Float64Array(n), y: new Float64Array(n), z: new Float64Array(n) };
+      for (let i = lo; i <= hi; i++) {
+        const t = scanTime(s.grid, i);
+        orbit.stateTeme(t, r, v);
+        const g = gmstRad(t), c = Math.cos(g), sn = Math.sin(g);
+        p.x[i - lo] = c * r[0] + sn * r[1]; p.y[i - lo] = -sn * r[0] + c * r[1]; p.z[i - lo] = r[2];
+      }
+      shared.set(step, p);
+    }
+    return p;
+  };
   return {
     searchSlab(slab) {
       const from = startS + slab * PASS_SLAB_S;
       const to = slab + 1 >= slabCount(scenario) ? endS : startS + (slab + 1) * PASS_SLAB_S;
+      shared.clear();
       return {
         slab,
         stations: searches.map((s) => {
           const [i0, i1] = s.range(from, to);
-          return s.events(i0, i1);
+          const p = positions(s, i0, i1);
+          const geo = s.geo;
+          return s.events(i0, i1, (i) => geo.elevationMinusMaskEcef(p.x[i - p.lo], p.y[i - p.lo], p.z[i - p.lo]));
         }),
       };
     },
