@@ -56,7 +56,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
 
   private grow(need: number): void {
     if (need <= this.cap) return;
-    const cap = Math.max(need, 64, 2 * this.cap);
+    const cap = Math.max(need, 64, Math.ceil(1.5 * this.cap));
     const nc = this.weather.length;
     const g = <T extends Float64Array | Int32Array>(a: T, per: number, make: (n: number) => T): T => { const b = make(cap * per); b.set(a); return b; };
     this.text = g(this.text, TEXT, (k) => new Int32Array(k));
@@ -136,6 +136,8 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
       || s[this.text[a * TEXT + 2]].localeCompare(s[this.text[b * TEXT + 2]])
       || s[this.text[a * TEXT + 3]].localeCompare(s[this.text[b * TEXT + 3]]));
     const nc = this.weather.length;
+    // The sorted columns sized to the rows (no spare capacity left after the run).
+    this.cap = this.n;
     const permute = <T extends Float64Array | Int32Array>(a: T, per: number, make: (k: number) => T): T => {
       const out = make(this.cap * per);
       for (let r = 0; r < this.n; r++) out.set(a.subarray(order[r] * per, order[r] * per + per), r * per);

@@ -42,7 +42,7 @@ import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type 
 import { forEachRow, type StepPart, type StepWindow } from './window.js';
 
 /** Grid times per window: large enough to amortise the per-window work, small enough that the columns stay in cache. */
-export const WINDOW_STEPS = 512;
+export const WINDOW_STEPS = 256;
 
 export interface SweepOptions {
   /** Steps in columns, window by window. */

@@ -1,8 +1,10 @@
 /**
- * The sweep on worker threads. The workers search the passes (a task per
- * satellite and slab of the window) while the main thread builds the link
- * engines once and sends their elevation tables to every worker (structured
- * clone of Float64Arrays: the workers build none). With every slab in, the
+ * The sweep on worker threads. The workers build the links' elevation tables
+ * (a task per satellite and station, each table built once) and search the
+ * passes (a task per satellite and slab of the window); the main thread sends
+ * every table to every worker (structured clone of Float64Arrays) and builds
+ * its own engines from them, so it builds none (and keeps the table
+ * building's garbage out of its heap). With every slab and table in, the
  * main thread plans each satellite's chunks (the same plan as the in-process
  * run); the workers sweep chunks as they become free, each writing its
  * steps.csv rows to a file of its own; the main thread merges the chunks'
@@ -28,7 +30,7 @@ import { createSatelliteMerge, emptyPipelineResult, finishPipelineResult, type S
 import { planFromSlabs, selectSeries, SERIES_MAX_SECTIONS, slabCount, type PlannedPass, type SlabEvents } from './plan.js';
 import { runPipeline } from './pipeline.js';
 import type { ChunkPartial, PipelineResult, SweepTimings } from './types.js';
-import type { FromWorker, ToWorker, WorkerInit } from './worker.js';
+import { createTaskRunner, type FromWorker, type ToWorker, type WorkerInit } from './tasks.js';
 
 export interface ParallelPipelineOptions {
   scenario: ResolvedScenario;
@@ -92,31 +94,54 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   const script = o.workerScript ?? defaultWorkerScript();
   const pool: Worker[] = [];
   try {
-    // The sweep keeps little garbage alive, so a small nursery per worker costs nothing measurable and
-    // keeps each thread's resident memory down (V8's default lets it grow to tens of MB).
-    for (let w = 0; w < workers; w++) pool.push(new Worker(script, { workerData: init, resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_GENERATION_MB } }));
+    // `workers` threads take tasks: this one and workers − 1 worker threads. The sweep keeps little garbage
+    // alive, so a small nursery per worker costs nothing measurable and keeps each thread's resident memory
+    // down (V8's default lets it grow to tens of MB).
+    for (let w = 1; w < workers; w++) pool.push(new Worker(script, { workerData: init, resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_GENERATION_MB } }));
     const result = emptyPipelineResult(scenario);
     const layouts: SatelliteLayout[] = scenarioLayouts(scenario, o.maskFloorDeg);
     const nSlabs = slabCount(scenario);
     const slabTasks = layouts.flatMap((layout, li) => Array.from({ length: nSlabs }, (_, slab) => ({ li, satIndex: layout.satIndex, slab })));
     const slabsBy: SlabEvents[][] = layouts.map(() => []);
+    const tableTasks = layouts.flatMap((layout, li) => layout.stations.map((_, station) => ({ li, satIndex: layout.satIndex, station })));
+    const tablesBy: ElevationTable[][][] = layouts.map((l) => l.stations.map(() => []));
     const chunkTasks: { satIndex: number; chunk: number; items: PlannedPass[]; merge: SatelliteMerge }[] = [];
     const merges: SatelliteMerge[] = [];
     let totalS = 0;
 
     await new Promise<void>((resolveAll, rejectAll) => {
       let failed = false;
-      const idle: Worker[] = [];
-      const queue: ToWorker[] = slabTasks.map((t, task) => ({ type: 'slab', task, satIndex: t.satIndex, slab: t.slab }));
+      /** Where a task can go: a worker thread, or this thread (tasks run between messages). */
+      interface Executor { postMessage(m: ToWorker): void }
+      const idle: Executor[] = [];
+      const queue: ToWorker[] = [
+        ...tableTasks.map((t, task): ToWorker => ({ type: 'buildTables', task, satIndex: t.satIndex, station: t.station })),
+        ...slabTasks.map((t, task): ToWorker => ({ type: 'slab', task, satIndex: t.satIndex, slab: t.slab })),
+      ];
       let slabsLeft = slabTasks.length;
+      let tablesLeft = tableTasks.length;
       let merged = 0;
       let doneS = 0;
       const ready = new Map<number, { partial: ChunkPartial; stepsFile: string | null }>();
       let chain: Promise<void> = Promise.resolve();
       const fail = (err: unknown) => { if (!failed) { failed = true; rejectAll(err); } };
       const pump = () => { while (!failed && idle.length > 0 && queue.length > 0) idle.shift()!.postMessage(queue.shift()!); };
-      // Every slab in: the plan (the same as the in-process run's), then the chunk tasks.
+      // Every slab and table in: the tables to every worker (before any chunk), the plan (the same as the
+      // in-process run's), then the chunk tasks.
       const plan = () => {
+        const tables: [number, ElevationTable[]][] = [];
+        try {
+          layouts.forEach((layout, li) => {
+            const t = tablesBy[li].flat();
+            for (const e of createSweeper(scenario, layout, t).engines) result.engines.push(e);
+            tables.push([layout.satIndex, t]);
+          });
+        } catch (err) {
+          fail(err);
+          return;
+        }
+        const msg: ToWorker = { type: 'tables', tables };
+        for (const w of executors) w.postMessage(msg);
         const plans = layouts.map((layout, li) => ({ layout, plan: planFromSlabs(scenario, layout, slabsBy[li]) }));
         if (o.collectSeries) selectSeries(plans, o.seriesMaxSections ?? SERIES_MAX_SECTIONS);
         for (const { layout, plan: p } of plans) {
@@ -145,15 +170,20 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
         }
         if (!failed && merged === chunkTasks.length) resolveAll();
       };
-      for (const w of pool) {
-        w.on('message', (m: FromWorker) => {
+      const onMessage = (w: Executor, m: FromWorker) => {
           if (failed) return;
           if (m.type === 'slab') {
             const t = slabTasks[m.task];
             slabsBy[t.li].push(m.events);
             result.sgp4Calls += m.sgp4Calls;
             idle.push(w);
-            if (--slabsLeft === 0) plan();
+            if (--slabsLeft === 0 && tablesLeft === 0) plan();
+            pump();
+          } else if (m.type === 'tables') {
+            const t = tableTasks[m.task];
+            tablesBy[t.li][t.station] = m.tables;
+            idle.push(w);
+            if (--tablesLeft === 0 && slabsLeft === 0) plan();
             pump();
           } else if (m.type === 'progress') {
             doneS += m.doneS;
@@ -168,27 +198,27 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
             if (m.stack && !(err instanceof InputError)) err.stack = m.stack;
             fail(err);
           }
-        });
+      };
+      // This thread's own runner: a task is started on the next turn, after the messages already queued.
+      const local: Executor = {
+        postMessage(m) {
+          setImmediate(() => {
+            if (failed) return;
+            runLocal(m).catch((err: unknown) => fail(err));
+          });
+        },
+      };
+      const runLocal = createTaskRunner(init, (m) => onMessage(local, m));
+      const executors: Executor[] = [local, ...pool];
+      idle.push(local);
+      for (const w of pool) {
+        w.on('message', (m: FromWorker) => onMessage(w, m));
         w.on('error', fail);
         w.on('exit', (code) => { if (code !== 0) fail(new Error(`parallel run: a worker exited with code ${code}`)); });
         idle.push(w);
       }
       pump();
-      // While the workers search passes: the engines, once, here; their tables go to every worker before any chunk.
-      try {
-        const tables: [number, ElevationTable[]][] = [];
-        for (const layout of layouts) {
-          const engines = createSweeper(scenario, layout).engines;
-          for (const e of engines) result.engines.push(e);
-          tables.push([layout.satIndex, engines.map((e) => e.table)]);
-        }
-        const msg: ToWorker = { type: 'tables', tables };
-        for (const w of pool) w.postMessage(msg);
-      } catch (err) {
-        fail(err);
-        return;
-      }
-      if (slabTasks.length === 0) plan();
+      if (slabTasks.length === 0 && tableTasks.length === 0) plan();
     });
     if (writer) await writer.close();
     const networkDaily: DailyRow[] = [];

@@ -57,7 +57,7 @@ describe('parallel run', () => {
     }
   });
 
-  it('builds the engines once in the main thread (their tables go to the workers), and reports progress to the end', async () => {
+  it('builds each elevation table once (in a worker, shared with the others and the main thread), and reports progress to the end', async () => {
     const scenario = smallScenario(0.5);
     let last = [0, 0];
     const p = await runPipelineParallel({ scenario, workers: 2, onProgress: (d, t) => { last = [d, t]; } });
