@@ -29,20 +29,18 @@ import { completePass, createOrbit } from '../passes/find.js';
 import type { Pass } from '../passes/types.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
-import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
+import { createDailyAccumulator, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
 import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
-import { networkEligible, networkOutranks, stationRank } from '../analysis/network.js';
+import { stationRank } from '../analysis/network.js';
+import { createNetworkFeed } from './network.js';
 import { createPassAccumulator, type PassAccumulator } from '../analysis/passAccumulator.js';
 import { PassLinkTable } from '../analysis/passTable.js';
 import { createRateHistogram, type RateHistogram } from '../analysis/rateHistogram.js';
-import { judgePass } from '../analysis/verdict.js';
 import type { SatelliteLayout } from './layout.js';
 import type { PlannedPass } from './plan.js';
 import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
-import { forEachRow, type StepPart, type StepWindow } from './window.js';
+import { forEachRow, WINDOW_STEPS, type StepPart, type StepWindow } from './window.js';
 
-/** Grid times per window: large enough to amortise the per-window work, small enough that the columns stay in cache. */
-export const WINDOW_STEPS = 256;
 
 export interface SweepOptions {
   /** Steps in columns, window by window. */
@@ -148,7 +146,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     scOff: st.links.map(() => new Float64Array(WINDOW_STEPS)),
   };
   const policy = scenario.network;
-  let netDaily: DailyAccumulator[][] = [];
+  const net = createNetworkFeed({ startS, endS, stepS, cases, linkNames: layout.linkNames, protoLinks: protoLink, satellite: sat.name, policy: scenario.network });
   /** The accumulators, made when the first chunk is swept (a sweeper built only for its engines has none). */
   const makeAccumulators = () => {
     for (const st of stations) {
@@ -158,11 +156,6 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         lr.mask = cases.map((c) => createMaskHistogram({ station: lr.station, link: lr.link.name, weather: c.name }));
         lr.rate = cases.map((c) => (lr.link.modcod.kind === 'fixed' ? createRateHistogram({ station: lr.station, link: lr.link.name, weather: c.name, growable: true }) : null));
       }
-    }
-    if (netDaily.length === 0) {
-      netDaily = protoLink.map((link) => cases.map((c) => createDailyAccumulator({
-        startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: sat.name, exportable: true,
-      })));
     }
   };
 
@@ -177,13 +170,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     };
     makeAccumulators();
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
-    // Network contact = a maximal run of grid times with at least one station in view (a group).
-    const netContact = layout.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
-    const netChosen = {
-      usable: new Uint8Array(WINDOW_STEPS), any: new Uint8Array(WINDOW_STEPS), rate: new Float64Array(WINDOW_STEPS), margin: new Float64Array(WINDOW_STEPS),
-      es: new Float64Array(WINDOW_STEPS), from: new Int32Array(WINDOW_STEPS), index: new Int32Array(WINDOW_STEPS),
-      rank0: new Float64Array(WINDOW_STEPS), rank1: new Float64Array(WINDOW_STEPS),
-    };
+    net.begin();
 
     const T = o.timings;
     let clock = T ? performance.now() : 0;
@@ -226,17 +213,6 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       });
       o.onPassDone?.(run.pass.durationS);
     };
-    const closeNetContact = () => {
-      for (let li = 0; li < nLinks; li++) {
-        for (let ci = 0; ci < nCases; ci++) {
-          const nc = netContact[li][ci];
-          if (Number.isNaN(nc.startS)) continue;
-          netDaily[li][ci].endPass(nc.startS, judgePass(nc.usableS, nc.aboveS, nc.any).verdict);
-          nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0;
-        }
-      }
-    };
-
     /** What the accumulators take from one pass-link over its part of a window. */
     const accumulate = (run: ItemRun, l: number, slot: Slot, k0: number, n: number) => {
       const lr = run.st.links[l];
@@ -274,79 +250,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
 
     /** One station in view for a link over a window: per grid time the candidate parts. */
     interface Active { run: ItemRun; slot: Slot; k0: number; n: number }
-    const network = (active: Active[], w0: number, w1: number) => {
-      for (let li = 0; li < nLinks; li++) {
-        const cands: Active[] = [];
-        const cl: number[] = [];
-        for (const x of active) {
-          const l = x.run.st.byName[li];
-          if (l >= 0) { cands.push(x); cl.push(l); }
-        }
-        if (cands.length === 0) continue;
-        for (let ci = 0; ci < nCases; ci++) {
-          const nc = netContact[li][ci];
-          const daily = netDaily[li][ci];
-          if (cands.length === 1) {
-            // One station in view: it carries the link at every usable step (a usable step always has a
-            // margin to compare, so usable is eligible under either policy).
-            const x = cands[0], l = cl[0];
-            const c = x.slot.cols[l].cases[ci];
-            if (Number.isNaN(nc.startS)) nc.startS = startS + x.k0 * stepS;
-            let above = nc.aboveS * 1, used = nc.usableS * 1, any = false;
-            const usable = c.usable, dt = stepS * 1;
-            for (let i = 0; i < x.n; i++) { above += dt; if (usable[i] === 1) { used += dt; any = true; } }
-            nc.aboveS = above; nc.usableS = used; if (any) nc.any = true;
-            daily.addColumns(startS, x.k0, stepS, 0, x.n, usable, c.informationRateBps, c.esN0DB, x.run.st.links[l].link, true);
-            continue;
-          }
-          // Several stations: per grid time the one the rule picks (candidates in order, each over its own
-          // steps, a later one taking a step only when it outranks the best so far: the rule's tie-breaks),
-          // gathered into columns and fed to the network's daily accumulator a run of equal links at a time.
-          const nw = w1 - w0;
-          const chosen = netChosen;
-          chosen.usable.fill(0, 0, nw);
-          chosen.any.fill(0, 0, nw);
-          chosen.from.fill(-1, 0, nw);
-          for (let a = 0; a < cands.length; a++) {
-            const x = cands[a];
-            const c = x.slot.cols[cl[a]].cases[ci];
-            const usable = c.usable, margin = c.marginDB, rate = c.informationRateBps;
-            const r0 = x.run.st.rank0, r1 = x.run.st.rank1;
-            const off = x.k0 - w0;
-            for (let i = 0; i < x.n; i++) {
-              const q = off + i;
-              chosen.any[q] = 1;
-              const m = margin[i];
-              if (!networkEligible(policy, usable[i] === 1, m)) continue;
-              const r = rate[i];
-              const f = chosen.from[q];
-              if (f >= 0 && !networkOutranks(policy, r, m, r0, r1, chosen.rate[q], chosen.margin[q], chosen.rank0[q], chosen.rank1[q])) continue;
-              chosen.from[q] = a; chosen.index[q] = i; chosen.rate[q] = r; chosen.margin[q] = m; chosen.rank0[q] = r0; chosen.rank1[q] = r1;
-            }
-          }
-          for (let q = 0; q < nw; q++) {
-            if (chosen.any[q] !== 1) continue;
-            if (Number.isNaN(nc.startS)) nc.startS = startS + (w0 + q) * stepS;
-            nc.aboveS += stepS;
-            const f = chosen.from[q];
-            if (f < 0) continue;
-            chosen.usable[q] = 1;
-            chosen.es[q] = cands[f].slot.cols[cl[f]].cases[ci].esN0DB[chosen.index[q]];
-            nc.usableS += stepS;
-            nc.any = true;
-          }
-          for (let q = 0; q < nw;) {
-            if (chosen.usable[q] !== 1) { q++; continue; }
-            const a = chosen.from[q];
-            let r = q + 1;
-            while (r < nw && chosen.usable[r] === 1 && chosen.from[r] === a) r++;
-            const x = cands[a];
-            daily.addColumns(startS, w0, stepS, q, r, chosen.usable, chosen.rate, chosen.es, x.run.st.links[cl[a]].link, true);
-            q = r;
-          }
-        }
-      }
-    };
+    const network = (active: Active[], w0: number, w1: number) => net.window(active.map((x) => ({ k0: x.k0, n: x.n, station: x.run.st, cols: x.slot.cols })), w0, w1);
 
     const stepRecord = o.onStep ? createStepBudget(cases) : null;
     const event: StepEvent | null = o.onStep ? { passId: '', satellite: sat.name, station: '', link: protoLink[0], timeS: NaN, step: stepRecord! } : null;
@@ -429,7 +333,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
           if (x.run.item.kLast < w1) { end(x.run); runs.delete(x.run.item); }
         }
       }
-      closeNetContact();
+      net.closeContact();
       i = j;
     }
 
@@ -446,7 +350,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         lr.envelope = [];
       }
     }
-    for (const accs of netDaily) for (const a of accs) part.daily.push(a.takeState());
+    for (const st of net.takeStates()) part.daily.push(st);
     part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
     part.passLinks = passTable.exportState();
     return part;

@@ -13,7 +13,7 @@ export * from './types.js';
 export * from './window.js';
 export * from './layout.js';
 export * from './plan.js';
-export { createSweeper, WINDOW_STEPS, type Sweeper, type SweepOptions } from './chunk.js';
+export { createSweeper, type Sweeper, type SweepOptions } from './chunk.js';
 export * from './merge.js';
 export { runPipeline } from './pipeline.js';
 export { runPipelineParallel, checkWorkers, type ParallelPipelineOptions } from './parallel.js';

@@ -8,6 +8,9 @@ import type { StationColumns } from '../geometry/columns.js';
 import type { LinkColumns } from '../budget/linkColumns.js';
 import type { LinkSpec } from '../budget/types.js';
 
+/** Grid times per window: large enough to amortise the per-window work, small enough that the columns stay in cache. */
+export const WINDOW_STEPS = 256;
+
 export interface StepPart {
   passId: string;
   satellite: string;
