@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  cosinePowerExponent, cosinePowerGainDBi, parabolicBeamwidthDeg, parabolicGainAtDBi, parabolicGainDBi, pointingLossDB,
+  cosinePowerExponent, cosinePowerGainDBi, cosinePowerGainPairColumnDBi, parabolicBeamwidthDeg, parabolicGainAtDBi, parabolicGainDBi, pointingLossDB,
   tabulatedGainDBi, validateGainTable,
 } from '../../src/models/antenna.js';
 
@@ -42,6 +42,22 @@ describe('cosine-power broad-beam pattern (G0 + 10 log10 cosⁿ θ; common pract
     expect(cosinePowerGainDBi({ peakGainDBi: 5, exponent: 1, offBoresightDeg: 90 })).toBe(-25);
     expect(cosinePowerGainDBi({ peakGainDBi: 5, exponent: 1, offBoresightDeg: 150, floorGainDBi: -10 })).toBe(-10);
     expect(cosinePowerGainDBi({ peakGainDBi: 5, exponent: 1, offBoresightDeg: 89.9, floorGainDBi: -10 })).toBe(-10);
+  });
+  it('column pair (θ and θ + ε through the angle-sum identity) equals two direct evaluations', () => {
+    // Same half-power fact as above: n for a 70° beamwidth puts 35° at G0 − 3.01 dB, so θ = 30°, ε = 5° gives it too.
+    const n = cosinePowerExponent({ beamwidthDeg: 70 });
+    const a = { peakGainDBi: 8, exponent: n };
+    const off = new Float64Array([0, 1e-6, 0.3, 12.5, 30, 45, 84.9, 85.1, 89.99, 90, 120, 180]);
+    const eps = 5;
+    const g = new Float64Array(off.length), gp = new Float64Array(off.length);
+    cosinePowerGainPairColumnDBi(a, off, eps, off.length, g, gp);
+    for (let i = 0; i < off.length; i++) {
+      expect(g[i]).toBeCloseTo(cosinePowerGainDBi({ ...a, offBoresightDeg: off[i] }), 12);
+      // sin θ from cos θ loses about √(2⁻⁵³) ≈ 1e-8 rad near boresight: within 1e-8 dB (the outputs print 0.001 dB).
+      expect(Math.abs(gp[i] - cosinePowerGainDBi({ ...a, offBoresightDeg: off[i] + eps }))).toBeLessThan(1e-8);
+    }
+    expect(gp[4]).toBeCloseTo(8 - 10 * Math.log10(2), 9);
+    expect(gp[7]).toBe(8 - 30); // 85.1° + 5° ≥ 90°: the floor
   });
 });
 
