@@ -23,7 +23,7 @@ export function register(program: Command): void {
     .option('--out <dir>', 'output folder (default out/<scenario name>)')
     .option('--no-steps', 'do not write steps.csv')
     .option('--quiet', 'no run-size line, progress bar or summary table')
-    .option('--workers <n>', 'worker threads for the sweep (default 1; outputs are identical for any count)')
+    .option('--workers <n>', 'threads that sweep: this one and n − 1 worker threads (default 1; outputs are identical for any count)')
     .option('--exact-orbit', 'SGP4 at every step instead of interpolating between SGP4 nodes (slower; a check)')
     .addHelpText('after', examples([
       ['passbudget run fixtures/demo/scenario.yaml', 'the demo: 7 days, three stations, into out/orbilux-demo/'],

@@ -6,8 +6,9 @@
  *               station look angles, each link's budget (budget/engine.ts evaluateColumns), then the
  *               pass, day, network, mask, rate, envelope and series accumulators fed from the columns;
  *   window.ts   a window's columns as the steps writers see them;
+ *   network.ts  per grid time, the one station that carries each link (the network's accumulators);
  *   merge.ts    chunks merged in order into the run's result;
- *   pipeline.ts all of it in this thread; parallel.ts + worker.ts on worker threads, same result.
+ *   pipeline.ts all of it in this thread; parallel.ts + tasks.ts + worker.ts on several threads, same result.
  */
 export * from './types.js';
 export * from './window.js';

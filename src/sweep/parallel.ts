@@ -34,7 +34,7 @@ import { createTaskRunner, type FromWorker, type ToWorker, type WorkerInit } fro
 
 export interface ParallelPipelineOptions {
   scenario: ResolvedScenario;
-  /** Worker threads; ≤ 1 runs in this thread (default 1). */
+  /** Threads that sweep: this one and workers − 1 worker threads; ≤ 1 runs in this thread alone (default 1). */
   workers?: number;
   /** steps.csv stream (header and rows written, then ended); null or absent: no steps. */
   stepsOut?: Writable | null;
