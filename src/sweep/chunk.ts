@@ -32,7 +32,7 @@ import type { ResolvedScenario } from '../scenario/types.js';
 import { createDailyAccumulator, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
 import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
 import { stationRank } from '../analysis/network.js';
-import { createNetworkFeed } from './network.js';
+import { createNetworkFeed, type InView } from './network.js';
 import { createPassAccumulator, type PassAccumulator } from '../analysis/passAccumulator.js';
 import { PassLinkTable } from '../analysis/passTable.js';
 import { createRateHistogram, type RateHistogram } from '../analysis/rateHistogram.js';
@@ -40,7 +40,6 @@ import type { SatelliteLayout } from './layout.js';
 import type { PlannedPass } from './plan.js';
 import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
 import { forEachRow, WINDOW_STEPS, type StepPart, type StepWindow } from './window.js';
-
 
 export interface SweepOptions {
   /** Steps in columns, window by window. */
@@ -145,7 +144,6 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     stn: createStationColumns(WINDOW_STEPS), cols: st.links.map(() => createLinkColumns(WINDOW_STEPS, nCases)), bins: new Int32Array(WINDOW_STEPS),
     scOff: st.links.map(() => new Float64Array(WINDOW_STEPS)),
   };
-  const policy = scenario.network;
   const net = createNetworkFeed({ startS, endS, stepS, cases, linkNames: layout.linkNames, protoLinks: protoLink, satellite: sat.name, policy: scenario.network });
   /** The accumulators, made when the first chunk is swept (a sweeper built only for its engines has none). */
   const makeAccumulators = () => {
@@ -249,8 +247,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     };
 
     /** One station in view for a link over a window: per grid time the candidate parts. */
-    interface Active { run: ItemRun; slot: Slot; k0: number; n: number }
-    const network = (active: Active[], w0: number, w1: number) => net.window(active.map((x) => ({ k0: x.k0, n: x.n, station: x.run.st, cols: x.slot.cols })), w0, w1);
+    interface Active extends InView { run: ItemRun; slot: Slot }
 
     const stepRecord = o.onStep ? createStepBudget(cases) : null;
     const event: StepEvent | null = o.onStep ? { passId: '', satellite: sat.name, station: '', link: protoLink[0], timeS: NaN, step: stepRecord! } : null;
@@ -322,9 +319,9 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             accumulate(run, l, slot, a, m);
             lap('accumulatorsS');
           }
-          active.push({ run, slot, k0: a, n: m });
+          active.push({ run, slot, k0: a, n: m, station: run.st, cols: slot.cols });
         }
-        network(active, w0, w1);
+        net.window(active, w0, w1);
         lap('accumulatorsS');
         await emit(active, w0, w1);
         lap('stepsS');

@@ -46,6 +46,7 @@ export function createNetworkFeed(o: {
   const nLinks = o.linkNames.length, nCases = cases.length;
   let daily: DailyAccumulator[][] = [];
   const contact = o.linkNames.map(() => cases.map(() => ({ startS: NaN, usableS: 0, any: false, aboveS: 0 })));
+  const clear = (nc: (typeof contact)[number][number]) => { nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0; };
   const chosen = {
     usable: new Uint8Array(WINDOW_STEPS), any: new Uint8Array(WINDOW_STEPS), rate: new Float64Array(WINDOW_STEPS), margin: new Float64Array(WINDOW_STEPS),
     es: new Float64Array(WINDOW_STEPS), from: new Int32Array(WINDOW_STEPS), index: new Int32Array(WINDOW_STEPS),
@@ -61,7 +62,7 @@ export function createNetworkFeed(o: {
           startS, endS, link, weather: c.name, station: NETWORK_STATION, satellite: o.satellite, exportable: true,
         })));
       }
-      for (const row of contact) for (const nc of row) { nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0; }
+      for (const row of contact) for (const nc of row) clear(nc);
     },
     closeContact() {
       for (let li = 0; li < nLinks; li++) {
@@ -69,7 +70,7 @@ export function createNetworkFeed(o: {
           const nc = contact[li][ci];
           if (Number.isNaN(nc.startS)) continue;
           daily[li][ci].endPass(nc.startS, judgePass(nc.usableS, nc.aboveS, nc.any).verdict);
-          nc.startS = NaN; nc.usableS = 0; nc.any = false; nc.aboveS = 0;
+          clear(nc);
         }
       }
     },
@@ -104,7 +105,7 @@ export function createNetworkFeed(o: {
           // steps, a later one taking a step only when it outranks the best so far: the rule's tie-breaks),
           // gathered into columns and fed to the network's daily accumulator a run of equal links at a time.
           const nw = w1 - w0;
-                    chosen.usable.fill(0, 0, nw);
+          chosen.usable.fill(0, 0, nw);
           chosen.any.fill(0, 0, nw);
           chosen.from.fill(-1, 0, nw);
           for (let a = 0; a < cands.length; a++) {
