@@ -18,20 +18,21 @@ import { jsonText, summaryJson } from '../output/json.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
 import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
-import type { ResolvedScenario } from '../scenario/types.js';
+import { stepsChoice, type ResolvedScenario, type StepsChoice } from '../scenario/types.js';
 import {
   DAILY_COLUMNS, PASS_COLUMNS, dailyRows, passJson, passRows, runSummary,
 } from './outputs.js';
 import { runPipelineParallel } from '../sweep/parallel.js';
 import { createProgress } from './progress.js';
 import { estimateRunSize } from './runSize.js';
+import { STEPS_FILE } from '../output/stepsSink.js';
 
 export interface RunOptions {
   /** Output folder; default the scenario's `output.dir`, else `out/<scenario name>` under the working directory. */
   outDir?: string;
   quiet?: boolean;
-  /** Write steps.csv (default: the scenario's output option). */
-  steps?: boolean;
+  /** The per-step file: csv, parquet or none (true = csv, false = none; default: the scenario's output.steps). */
+  steps?: boolean | StepsChoice;
   /** Worker threads for the sweep (default 1: in this thread); outputs are identical for any count. */
   workers?: number;
   /** With one worker: filled with where the time goes (the benchmark). */
@@ -118,20 +119,22 @@ export function reportInput(
 
 export async function runScenario(scenario: ResolvedScenario, opts: RunOptions = {}): Promise<RunResult> {
   const outDir = defaultOutDir(scenario, opts.outDir);
-  const writeSteps = opts.steps ?? scenario.output.steps;
+  const steps = opts.steps === undefined ? scenario.output.steps : stepsChoice(opts.steps);
+  const stepsFile = steps === 'none' ? null : STEPS_FILE[steps];
   const warnings = elementWarnings(scenario);
-  const size = estimateRunSize(scenario, { steps: writeSteps });
-  // Files other than steps.csv are small next to it; the estimate names steps.csv's share, the part that fills disks.
-  const out = new AtomicOutputDir(outDir, writeSteps ? { estimatedBytes: size.stepsCsvBytes, estimateNote: 'for steps.csv, estimated before the run' } : {});
+  const size = estimateRunSize(scenario, { steps });
+  // Files other than the steps file are small next to it; the estimate names its share, the part that fills disks.
+  const out = new AtomicOutputDir(outDir, stepsFile ? { estimatedBytes: size.stepsBytes, estimateNote: `for ${stepsFile}, estimated before the run` } : {});
   const progress = createProgress({ quiet: opts.quiet === true, label: scenario.name });
   try {
-    // steps.csv rows are formatted by output/stepsCsv.ts (byte-identical to stepRow + csv-stringify, much faster);
+    // steps rows are written by output/stepsSink.ts (steps.csv byte-identical to stepRow + csv-stringify, much faster; or steps.parquet);
     // with workers > 1 the sweep runs on worker threads, outputs identical to the in-process run.
     const pipeline = await runPipelineParallel({
       scenario,
       workers: opts.workers,
       collectSeries: true,
-      stepsOut: writeSteps ? out.stream('steps.csv') : null,
+      stepsOut: stepsFile ? out.stream(stepsFile) : null,
+      stepsFormat: steps === 'none' ? undefined : steps,
       onProgress: progress.update,
       timings: opts.timings,
     });
@@ -146,7 +149,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily)));
     // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
     out.writeFile('passes.ics', renderCalendar(passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
-    const fileNames = [...(writeSteps ? ['steps.csv'] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
+    const fileNames = [...(stepsFile ? [stepsFile] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
     const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
     out.writeFile('summary.json', jsonText(summaryJson(summary)));

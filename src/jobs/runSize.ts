@@ -16,7 +16,7 @@
  */
 import type { ElementSet } from '../elements/types.js';
 import type { HorizonMask } from '../geometry/types.js';
-import type { ResolvedScenario } from '../scenario/types.js';
+import { stepsChoice, type ResolvedScenario, type StepsChoice } from '../scenario/types.js';
 import { formatBytes } from '../output/atomic.js';
 import { stepColumns } from './outputs.js';
 
@@ -77,6 +77,8 @@ export function elementsInViewFraction(e: ElementSet, latitudeDeg: number, maskD
 
 /** Average bytes of one numeric steps.csv field with its comma (the demo run's steps.csv averages 6.7). */
 export const STEPS_CSV_BYTES_PER_NUMBER = 7;
+/** steps.parquet's size as a share of steps.csv's (measured on the demo week and the 30-day benchmark W1; see the README). */
+export const STEPS_PARQUET_SHARE = 0.2;
 
 export interface RunSize {
   /** Instants of the time grid over the whole window (start + k·step). */
@@ -85,14 +87,16 @@ export interface RunSize {
   linkSteps: number;
   /** Estimated steps.csv size (bytes), whether or not it is written. */
   stepsCsvBytes: number;
-  writeSteps: boolean;
+  /** The per-step file of this run (none: not written) and its estimated size (bytes). */
+  steps: StepsChoice;
+  stepsBytes: number;
   /** Links (satellite × station × link). */
   links: number;
   /** How the estimate was made, one phrase. */
   method: string;
 }
 
-export function estimateRunSize(scenario: ResolvedScenario, opts: { steps?: boolean } = {}): RunSize {
+export function estimateRunSize(scenario: ResolvedScenario, opts: { steps?: boolean | StepsChoice } = {}): RunSize {
   const { startS, endS, stepS } = scenario.window;
   const gridSteps = Math.floor((endS - startS) / stepS) + 1;
   const fields = stepColumns(scenario.weatherCases).length - 5;
@@ -114,11 +118,13 @@ export function estimateRunSize(scenario: ResolvedScenario, opts: { steps?: bool
     const fixed = (l.satellite.length + l.station.length + 5) + 25 + (l.satellite.length + 1) + (l.station.length + 1) + (l.name.length + 1);
     bytes += rows * (fixed + STEPS_CSV_BYTES_PER_NUMBER * fields);
   }
+  const steps = opts.steps === undefined ? scenario.output.steps : stepsChoice(opts.steps);
   return {
     gridSteps,
     linkSteps: Math.round(linkSteps),
     stepsCsvBytes: Math.round(bytes),
-    writeSteps: opts.steps ?? scenario.output.steps,
+    steps,
+    stepsBytes: Math.round(steps === 'parquet' ? bytes * STEPS_PARQUET_SHARE : steps === 'csv' ? bytes : 0),
     links: scenario.links.length,
     method: 'time in view from each orbit\'s altitude and inclination and each station\'s latitude and mask, circular-orbit geometry',
   };
@@ -128,8 +134,10 @@ const count = (n: number) => (n >= 1e9 ? `${(n / 1e9).toFixed(2)} G` : n >= 1e6 
 
 /** The one line printed before a run: `run size: …`. */
 export function formatRunSize(r: RunSize, stepS: number): string {
-  const steps = r.writeSteps
-    ? `steps.csv about ${formatBytes(r.stepsCsvBytes)}`
-    : `steps.csv not written (it would be about ${formatBytes(r.stepsCsvBytes)})`;
+  const steps = r.steps === 'parquet'
+    ? `steps.parquet about ${formatBytes(r.stepsBytes)} (steps.csv would be about ${formatBytes(r.stepsCsvBytes)})`
+    : r.steps === 'csv'
+      ? `steps.csv about ${formatBytes(r.stepsCsvBytes)}`
+      : `steps not written (steps.csv would be about ${formatBytes(r.stepsCsvBytes)})`;
   return `run size: ${count(r.gridSteps)} grid steps of ${stepS} s; about ${count(r.linkSteps)} link-steps in view over ${r.links} link${r.links === 1 ? '' : 's'}; ${steps} (estimated: ${r.method})`;
 }

@@ -29,6 +29,28 @@ export function stepColumns(cases: readonly WeatherCase[]): string[] {
   return cols;
 }
 
+/**
+ * Where each steps field comes from in a sweep window part (sweep/window.ts):
+ * `s.` the station's columns, `c.` the link's, `k.` the weather case's; `[i]`
+ * a column per step, else a constant per link. The CSV writer compiles these
+ * into its row function, the Parquet writer reads the arrays they name.
+ */
+export const STEP_SOURCE: Record<string, string> = {
+  range_km: 's.rangeKm[i]', elevation_deg: 's.elevationDeg[i]', azimuth_deg: 's.azimuthDeg[i]',
+  tx_off_boresight_deg: 'c.txOffBoresightDeg[i]', rx_off_boresight_deg: 'c.rxOffBoresightDeg[i]', eirp_dbw: 'c.eirpDBW[i]',
+  free_space_loss_db: 'c.freeSpaceLossDB[i]', polarisation_loss_db: 'c.polarisationLossDB', tx_pointing_loss_db: 'c.txPointingLossDB[i]',
+  rx_pointing_loss_db: 'c.rxPointingLossDB[i]', other_losses_db: 'c.otherLossesDB', mount_lag_deg: 'c.mountLagDeg[i]',
+  mount_limited: 'c.mountLimited[i]', doppler_hz: 'c.dopplerHz[i]', doppler_rate_hz_s: 'c.dopplerRateHzS[i]',
+};
+export const CASE_SOURCE: Record<string, string> = {
+  gas_loss_db: 'k.gasDB[i]', rain_loss_db: 'k.rainDB[i]', cloud_loss_db: 'k.cloudDB[i]', scintillation_db: 'k.scintillationDB[i]',
+  atmospheric_loss_db: 'k.atmosphericDB[i]', antenna_temperature_k: 'k.antennaTemperatureK[i]', system_temperature_k: 'k.systemTemperatureK[i]',
+  g_over_t_dbk: 'k.gOverTDBK[i]', c_over_n0_dbhz: 'k.cOverN0DBHz[i]', eb_over_n0_db: 'k.ebN0DB[i]', es_over_n0_db: 'k.esN0DB[i]',
+  required_eb_over_n0_db: 'k.requiredEbN0DB[i]', margin_db: 'k.marginDB[i]', usable: 'k.usable[i]', mode: 'k.mode[i]',
+  information_rate_bps: 'k.informationRateBps[i]',
+};
+export const BOOLEAN_FIELDS = new Set(['mount_limited', 'usable']);
+
 export function stepRow(e: StepEvent, row: CsvCell[] = []): CsvCell[] {
   const s: StepBudget = e.step;
   let i = 0;

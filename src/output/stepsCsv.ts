@@ -28,7 +28,7 @@ import type { Writable } from 'node:stream';
 import type { WeatherCase } from '../budget/types.js';
 import type { StepPart, StepWindow } from '../sweep/window.js';
 import { fmt } from './csv.js';
-import { CASE_FIELDS, decimalsFor, STEP_FIELDS, stepColumns } from './stepsColumns.js';
+import { BOOLEAN_FIELDS, CASE_FIELDS, CASE_SOURCE, decimalsFor, STEP_FIELDS, STEP_SOURCE, stepColumns } from './stepsColumns.js';
 
 const POW10 = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
 /**
@@ -157,23 +157,6 @@ export function putIso(b: Uint8Array, o: number, timeS: number): number {
   b[o + 9] = ZERO + ((f / 100) | 0); b[o + 10] = ZERO + (((f / 10) | 0) % 10); b[o + 11] = ZERO + (f % 10); b[o + 12] = 90;
   return o + 13;
 }
-
-/** Where each steps.csv field comes from in a window part: the column (per step) or the constant (per link). */
-const STEP_SOURCE: Record<string, string> = {
-  range_km: 's.rangeKm[i]', elevation_deg: 's.elevationDeg[i]', azimuth_deg: 's.azimuthDeg[i]',
-  tx_off_boresight_deg: 'c.txOffBoresightDeg[i]', rx_off_boresight_deg: 'c.rxOffBoresightDeg[i]', eirp_dbw: 'c.eirpDBW[i]',
-  free_space_loss_db: 'c.freeSpaceLossDB[i]', polarisation_loss_db: 'c.polarisationLossDB', tx_pointing_loss_db: 'c.txPointingLossDB[i]',
-  rx_pointing_loss_db: 'c.rxPointingLossDB[i]', other_losses_db: 'c.otherLossesDB', mount_lag_deg: 'c.mountLagDeg[i]',
-  mount_limited: 'c.mountLimited[i]', doppler_hz: 'c.dopplerHz[i]', doppler_rate_hz_s: 'c.dopplerRateHzS[i]',
-};
-const CASE_SOURCE: Record<string, string> = {
-  gas_loss_db: 'k.gasDB[i]', rain_loss_db: 'k.rainDB[i]', cloud_loss_db: 'k.cloudDB[i]', scintillation_db: 'k.scintillationDB[i]',
-  atmospheric_loss_db: 'k.atmosphericDB[i]', antenna_temperature_k: 'k.antennaTemperatureK[i]', system_temperature_k: 'k.systemTemperatureK[i]',
-  g_over_t_dbk: 'k.gOverTDBK[i]', c_over_n0_dbhz: 'k.cOverN0DBHz[i]', eb_over_n0_db: 'k.ebN0DB[i]', es_over_n0_db: 'k.esN0DB[i]',
-  required_eb_over_n0_db: 'k.requiredEbN0DB[i]', margin_db: 'k.marginDB[i]', usable: 'k.usable[i]', mode: 'k.mode[i]',
-  information_rate_bps: 'k.informationRateBps[i]',
-};
-const BOOLEAN_FIELDS = new Set(['mount_limited', 'usable']);
 
 interface ByteHelpers {
   fixed: typeof putFixed;
@@ -334,11 +317,6 @@ export function writeWindowRows(fmt: StepsCsvFormatter, w: StepWindow, target: R
     }
   }
   return pending;
-}
-
-/** A sweep step sink that writes steps.csv rows through `writer` (rows in window order). */
-export function stepsCsvSink(writer: ChunkedTextWriter, fmt: StepsCsvFormatter): (w: StepWindow) => void | Promise<void> {
-  return (w) => writer.writeWindow(fmt, w);
 }
 
 /**

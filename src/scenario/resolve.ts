@@ -20,7 +20,7 @@ import {
 } from '../models/index.js';
 import type { LinkInput, ScenarioInput, StationInput, TerminalInput } from './schema.js';
 import { formatPath, type Path, type ScenarioSource } from './source.js';
-import type { AppliedDefault, NetworkPolicy, ResolvedScenario, ScenarioSatellite, ScenarioStation } from './types.js';
+import { stepsChoice, type AppliedDefault, type NetworkPolicy, type ResolvedScenario, type ScenarioSatellite, type ScenarioStation } from './types.js';
 
 /** A window reaching further than this from an element epoch (days) is refused: SGP4 means nothing there. */
 export const EPOCH_REFUSE_DAYS = 366;
@@ -243,8 +243,8 @@ export function resolveScenarioInput(
   if (opts.outDir !== undefined) dir = path.resolve(opts.outDir);
   else if (input.output?.dir !== undefined) dir = path.resolve(opts.baseDir, input.output.dir);
   else ctx.recordDefault({ path: 'output.dir', value: `out/${input.name}`, reason: 'out/<scenario name> under the working directory' });
-  const steps = input.output?.steps ?? false;
-  if (input.output?.steps === undefined) ctx.recordDefault({ path: 'output.steps', value: 'false', reason: 'per-step series not written unless asked' });
+  const steps = stepsChoice(input.output?.steps ?? 'none');
+  if (input.output?.steps === undefined) ctx.recordDefault({ path: 'output.steps', value: 'none', reason: 'per-step table not written unless asked' });
 
   const exactOrbit = input.exact_orbit ?? false;
   if (input.exact_orbit === undefined) {

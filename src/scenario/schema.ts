@@ -269,7 +269,7 @@ export const rateFinderSchema = obj({
 
 export const outputSchema = obj({
   dir: z.string().min(1).optional().meta(d('Output directory, relative to the scenario file')),
-  steps: z.boolean().optional().meta(d('Write the per-step series; default false')),
+  steps: z.union([z.enum(['csv', 'parquet', 'none']), z.boolean()]).optional().meta(d('The per-step table: csv (steps.csv), parquet (steps.parquet) or none; true means csv, false none; default none')),
 }).meta({ title: 'Output options' });
 
 export const scenarioSchema = obj({

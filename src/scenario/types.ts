@@ -39,7 +39,8 @@ export interface ResolvedScenario {
   maskFraction: number;
   /** Rate finder: bit rates to try (b/s) per fixed-rate link name. */
   rateCandidatesBps: number[];
-  output: { dir: string | null; steps: boolean };
+  /** The per-step table: its format, or none. */
+  output: { dir: string | null; steps: StepsChoice };
   /** SGP4 at every instant instead of interpolating between nodes (orbit/interpolated.ts). */
   exactOrbit: boolean;
   defaultsApplied: AppliedDefault[];
@@ -50,4 +51,12 @@ export interface ResolvedScenario {
    * with --quiet. Each is also in `warnings` (and so in summary.json).
    */
   notices?: string[];
+}
+
+/** `output.steps`: steps.csv, steps.parquet or no per-step file. */
+export type StepsChoice = 'csv' | 'parquet' | 'none';
+export const STEPS_CHOICES: readonly StepsChoice[] = ['csv', 'parquet', 'none'];
+/** A steps option as the scenario or the library may give it: a format, or a boolean (true = csv, false = none). */
+export function stepsChoice(v: boolean | StepsChoice): StepsChoice {
+  return v === true ? 'csv' : v === false ? 'none' : v;
 }

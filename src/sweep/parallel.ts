@@ -13,7 +13,7 @@
  * byte-identical to the in-process run (`workers` ≤ 1), which merges the same
  * chunks the same way.
  */
-import { createReadStream, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Writable } from 'node:stream';
@@ -22,7 +22,7 @@ import { Worker } from 'node:worker_threads';
 import type { ElevationTable } from '../budget/atmosphere.js';
 import type { DailyRow } from '../analysis/types.js';
 import { InputError } from '../errors.js';
-import { ChunkedTextWriter, createStepsCsvFormatter, stepsCsvSink } from '../output/stepsCsv.js';
+import { createStepsSink, type StepsFormat } from '../output/stepsSink.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { createSweeper } from './chunk.js';
 import { scenarioLayouts, type SatelliteLayout } from './layout.js';
@@ -36,8 +36,10 @@ export interface ParallelPipelineOptions {
   scenario: ResolvedScenario;
   /** Threads that sweep: this one and workers − 1 worker threads; ≤ 1 runs in this thread alone (default 1). */
   workers?: number;
-  /** steps.csv stream (header and rows written, then ended); null or absent: no steps. */
+  /** The steps file's stream (rows written, then ended); null or absent: no steps. */
   stepsOut?: Writable | null;
+  /** Its format (default csv). */
+  stepsFormat?: StepsFormat;
   collectSeries?: boolean;
   seriesMaxPoints?: number;
   /** With collectSeries: series only for the first this many pass-link sections in time order (default SERIES_MAX_SECTIONS). */
@@ -75,14 +77,13 @@ function defaultWorkerScript(): string {
 export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<PipelineResult> {
   const { scenario } = o;
   const workers = o.workers ?? 1;
-  const fmt = o.stepsOut ? createStepsCsvFormatter(scenario.weatherCases) : null;
-  const writer = o.stepsOut && fmt ? new ChunkedTextWriter(o.stepsOut, () => fmt.ascii) : null;
-  if (writer && fmt) await writer.write(fmt.header);
+  const stepsFormat = o.stepsFormat ?? 'csv';
+  const writer = o.stepsOut ? await createStepsSink(o.stepsOut, stepsFormat, scenario.weatherCases) : null;
 
   if (workers <= 1) {
     const result = await runPipeline({
       scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections,
-      maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress, onWindow: writer && fmt ? stepsCsvSink(writer, fmt) : undefined,
+      maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress, onWindow: writer ? (w) => writer.window(w) : undefined,
       timings: o.timings,
     });
     if (writer) await writer.close();
@@ -90,7 +91,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   }
 
   const stepsDir = writer ? mkdtempSync(join(tmpdir(), 'passbudget-steps-')) : null;
-  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir };
+  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir, stepsFormat };
   const script = o.workerScript ?? defaultWorkerScript();
   const pool: Worker[] = [];
   try {
@@ -163,7 +164,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
           ready.delete(merged);
           chunkTasks[merged].merge.add(partial);
           if (writer && stepsFile) {
-            for await (const piece of createReadStream(stepsFile, { highWaterMark: 1 << 20 })) await writer.writeBuffer(piece as Buffer);
+            await writer.appendChunkFile(stepsFile);
             rmSync(stepsFile, { force: true });
           }
           merged++;

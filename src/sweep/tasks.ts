@@ -6,11 +6,10 @@
  * (chunk.ts), writing its steps.csv rows to a file of its own, and hand back
  * the chunk's accumulator state (typed arrays transferable, not copied).
  */
-import { closeSync, openSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import type { ElevationTable } from '../budget/atmosphere.js';
 import { createLinkEngine } from '../budget/engine.js';
-import { createStepsCsvFormatter, writeWindowRows, type RowTarget } from '../output/stepsCsv.js';
+import { chunkStepsFiles, type StepsFormat } from '../output/stepsSink.js';
 import { createOrbit } from '../passes/find.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
@@ -24,8 +23,9 @@ export interface WorkerInit {
   maskFloorDeg?: number;
   collectSeries: boolean;
   seriesMaxPoints?: number;
-  /** Folder for the chunks' steps rows; null when steps.csv is not written. */
+  /** Folder for the chunks' steps rows; null when no steps file is written. */
   stepsDir: string | null;
+  stepsFormat: StepsFormat;
 }
 
 export type ToWorker =
@@ -52,18 +52,6 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   const t = p.passLinks;
   for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts]) out.add(a.buffer as ArrayBuffer);
   return [...out];
-}
-
-/** steps rows of one chunk into a file, through a 1 MB buffer. */
-function fileTarget(fd: number): RowTarget {
-  const t = {
-    buffer: new Uint8Array(1 << 20),
-    filled: 0,
-    capacity: 1 << 20,
-    flush() { if (t.filled > 0) writeSync(fd, t.buffer, 0, t.filled); t.filled = 0; },
-    writeRaw(bytes: Uint8Array) { t.flush(); writeSync(fd, bytes); },
-  };
-  return t;
 }
 
 /**
@@ -93,7 +81,7 @@ export function createTaskRunner(init: WorkerInit, post: (m: FromWorker, transfe
     if (!s) { s = createSweeper(scenario, layoutOf(satIndex), tables.get(satIndex), orbitFor(satIndex)); sweepers.set(satIndex, s); }
     return s;
   };
-  const fmt = init.stepsDir ? createStepsCsvFormatter(scenario.weatherCases) : null;
+  const chunkFile = init.stepsDir ? chunkStepsFiles(init.stepsFormat, scenario.weatherCases) : null;
 
   return async (msg) => {
     if (msg.type === 'tables') {
@@ -115,26 +103,21 @@ export function createTaskRunner(init: WorkerInit, post: (m: FromWorker, transfe
       post({ type: 'slab', task: msg.task, events, sgp4Calls: orbit.sgp4Calls - before });
       return;
     }
-    let fd = -1;
-    let stepsFile: string | null = null;
-    if (fmt && init.stepsDir) {
-      stepsFile = join(init.stepsDir, `s${msg.satIndex}-c${msg.chunk}.csv`);
-      fd = openSync(stepsFile, 'w');
-    }
-    const target = fd >= 0 ? fileTarget(fd) : null;
+    const stepsFile = chunkFile && init.stepsDir ? join(init.stepsDir, `s${msg.satIndex}-c${msg.chunk}.${init.stepsFormat}`) : null;
+    const target = chunkFile && stepsFile ? chunkFile(stepsFile) : null;
     let doneS = 0;
     let lastPost = 0;
     const partial = await sweeperFor(msg.satIndex).sweepChunk(msg.items, msg.chunk, {
       collectSeries: init.collectSeries,
       seriesMaxPoints: init.seriesMaxPoints,
-      onWindow: fmt && target ? (w) => writeWindowRows(fmt, w, target) : undefined,
+      onWindow: target ? (w) => target.window(w) : undefined,
       onPassDone: (d) => {
         doneS += d;
         const now = Date.now();
         if (now - lastPost > 100) { post({ type: 'progress', doneS }); doneS = 0; lastPost = now; }
       },
     });
-    if (target) { target.flush(); closeSync(fd); }
+    target?.close();
     if (doneS > 0) post({ type: 'progress', doneS });
     post({ type: 'done', task: msg.task, partial, stepsFile }, transferables(partial));
   };
