@@ -6,7 +6,7 @@ export function register(program: Command): void {
   program
     .command('report')
     .description('rebuild report.html from an existing output folder of passbudget run')
-    .argument('<dir>', 'output folder (holds summary.json, passes.json, daily.csv; steps.csv, mask.csv, rate.csv when present)')
+    .argument('<dir>', 'output folder (holds summary.json, passes.json, daily.csv; steps.csv or steps.parquet, mask.csv, rate.csv when present)')
     .addHelpText('after', examples([
       ['passbudget report out/orbilux-demo', 'report.html again from the files of a run (after passbudget mask or rate, with their charts)'],
     ]))

@@ -3,14 +3,14 @@
  * passes.json, daily.csv, and when present mask.csv/mask.json, rate.csv and
  * steps.csv for the per-pass series) and write report.html again, atomically.
  */
-import { createReadStream, existsSync, readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { parse } from 'csv-parse';
 import { parse as parseSync } from 'csv-parse/sync';
 import type { DailyRow, MaskFinding, MaskTradePoint, PassLinkSummary, RateTradePoint, Verdict } from '../analysis/types.js';
 import { megabytesToBits } from '../analysis/units.js';
 import { InputError } from '../errors.js';
 import { writeFileAtomic } from '../output/atomic.js';
+import { findStepsFile, readStepRecords, type StepRecord } from '../output/stepsRead.js';
 import { maskFindingsFromJson, summaryFromJson } from '../output/json.js';
 import { renderReport, REPORT_MAX_PASS_SECTIONS } from '../output/report/index.js';
 import type { LinkEnvelope, PassSeries, ReportInput } from '../output/report/types.js';
@@ -82,20 +82,19 @@ export function dailyFromCsv(rows: Record<string, string>[]): DailyRow[] {
 }
 
 /**
- * From steps.csv, streamed (never held whole): decimated series for the pass
+ * From the steps file (csv or parquet), streamed (never held whole): decimated series for the pass
  * sections the report draws (the first REPORT_MAX_PASS_SECTIONS pass-links in
  * the report's order, which passes.json already has), and the margin envelope
  * over every step — the same bounded data `passbudget run` hands the report.
  */
-async function fromSteps(file: string, passes: PassLinkSummary[], weather: string[]): Promise<{ series: PassSeries[]; envelopes: LinkEnvelope[] }> {
+async function fromSteps(rows: AsyncIterable<StepRecord>, passes: PassLinkSummary[], weather: string[]): Promise<{ series: PassSeries[]; envelopes: LinkEnvelope[] }> {
   const every = new Map<string, number>();
   for (const p of passes.slice(0, REPORT_MAX_PASS_SECTIONS)) every.set(`${p.passId}|${p.link}`, Math.max(1, Math.ceil(p.steps / SERIES_MAX_POINTS)));
   const series = new Map<string, PassSeries & { n: number }>();
   const envelopes: StationLinkEnvelope[] = [];
   const envOf = new Map<string, StationLinkEnvelope[]>();
-  const parser = createReadStream(file).pipe(parse({ columns: true }));
-  for await (const r of parser as AsyncIterable<Record<string, string>>) {
-    const el = num(r.elevation_deg);
+  for await (const r of rows) {
+    const el = r.elevationDeg;
     const linkKey = `${r.station}|${r.link}`;
     let envs = envOf.get(linkKey);
     if (!envs) {
@@ -107,26 +106,26 @@ async function fromSteps(file: string, passes: PassLinkSummary[], weather: strin
       envOf.set(linkKey, envs);
       envelopes.push(...envs);
     }
-    const limited = r.mount_limited === 'true';
-    weather.forEach((w, i) => {
+    weather.forEach((_w, i) => {
       const e = envs![i];
-      envelopeAdd(e.minDB, e.maxDB, e.keyholeMinDB, el, num(r[`margin_db_${w}`]), limited && r[`usable_${w}`] !== 'true');
+      const c = r.cases[i];
+      envelopeAdd(e.minDB, e.maxDB, e.keyholeMinDB, el, c.marginDB, r.mountLimited && !c.usable);
     });
-    const key = `${r.pass_id}|${r.link}`;
+    const key = `${r.passId}|${r.link}`;
     const step = every.get(key);
     if (step === undefined) continue;
     let s = series.get(key);
     if (!s) {
-      s = { passId: r.pass_id, link: r.link, timeS: [], azimuthDeg: [], elevationDeg: [], cases: weather.map((w) => ({ weather: w, marginDB: [], ebN0DB: [] })), n: 0 };
+      s = { passId: r.passId, link: r.link, timeS: [], azimuthDeg: [], elevationDeg: [], cases: weather.map((w) => ({ weather: w, marginDB: [], ebN0DB: [] })), n: 0 };
       series.set(key, s);
     }
     if (s.n++ % step !== 0) continue;
-    s.timeS.push(Date.parse(r.time_utc) / 1000);
-    s.azimuthDeg.push(num(r.azimuth_deg));
+    s.timeS.push(r.timeS);
+    s.azimuthDeg.push(r.azimuthDeg);
     s.elevationDeg.push(el);
-    weather.forEach((w, i) => {
-      s!.cases[i].marginDB.push(num(r[`margin_db_${w}`]));
-      s!.cases[i].ebN0DB.push(num(r[`eb_over_n0_db_${w}`]));
+    weather.forEach((_w, i) => {
+      s!.cases[i].marginDB.push(r.cases[i].marginDB);
+      s!.cases[i].ebN0DB.push(r.cases[i].ebN0DB);
     });
   }
   return { series: [...series.values()].map(({ n: _n, ...s }) => s), envelopes: linkEnvelopes(envelopes) };
@@ -140,7 +139,8 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
   const summary = summaryFromJson(readJson<unknown>(join(dir, 'summary.json')), join(dir, 'summary.json'));
   const passes = passesFromJson(readJson<PassJson[]>(join(dir, 'passes.json')));
   const daily = dailyFromCsv(readCsv(join(dir, 'daily.csv')));
-  const steps = existsSync(join(dir, 'steps.csv')) ? await fromSteps(join(dir, 'steps.csv'), passes, summary.weatherCases) : null;
+  const stepsFile = findStepsFile(dir);
+  const steps = stepsFile ? await fromSteps(readStepRecords(stepsFile.file, stepsFile.format, summary.weatherCases), passes, summary.weatherCases) : null;
   const series = steps?.series ?? [];
   let maskTrade: MaskTradePoint[] | undefined;
   let maskFindings: MaskFinding[] | undefined;

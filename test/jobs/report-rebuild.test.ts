@@ -34,6 +34,32 @@ describe('report rebuilt from an output folder', () => {
     expect(after).toContain('every step of every pass');
   });
 
+  it('reads steps.parquet as it reads steps.csv: the same series and envelope, to the float32 of the printed decimals', async () => {
+    const dir = tempDir('rebuild-parquet');
+    const scenario = loadScenario(writeDemoCopy(dir, '1d'));
+    const csvRun = await runScenario(scenario, { outDir: path.join(dir, 'csv'), quiet: true, steps: 'csv' });
+    const pqRun = await runScenario(scenario, { outDir: path.join(dir, 'parquet'), quiet: true, steps: 'parquet' });
+    const a = await loadReportInput(csvRun.outDir);
+    const b = await loadReportInput(pqRun.outDir);
+    expect(b.series.length).toBe(a.series.length);
+    expect(b.series.length).toBeGreaterThan(0);
+    let worst = 0;
+    const same = (x: number, y: number) => { if (Number.isNaN(x) || Number.isNaN(y)) expect(Number.isNaN(x)).toBe(Number.isNaN(y)); else worst = Math.max(worst, Math.abs(x - y)); };
+    for (const [i, s] of a.series.entries()) {
+      const t = b.series[i];
+      expect([t.passId, t.link, t.timeS.length]).toEqual([s.passId, s.link, s.timeS.length]);
+      expect(t.timeS).toEqual(s.timeS);
+      s.elevationDeg.forEach((v, j) => same(v, t.elevationDeg[j]));
+      s.cases.forEach((c, k) => c.marginDB.forEach((v, j) => same(v, t.cases[k].marginDB[j])));
+    }
+    expect(b.envelopes?.length).toBe(a.envelopes?.length);
+    for (const [i, e] of a.envelopes!.entries()) e.bins.forEach((bin, j) => same(bin.minDB, b.envelopes![i].bins[j].minDB));
+    // float32 of a 3-decimal value below 8192 is within 2^-12 of it (stepsParquet.ts F32_LIMIT)
+    expect(worst).toBeLessThan(2 ** -12);
+    const html = readFileSync(await rebuildReport(pqRun.outDir), 'utf8');
+    expect(html).toContain('every step of every pass');
+  });
+
   it('summary.json is snake_case with units in the names, and reads back into the same record', async () => {
     const dir = tempDir('summary-names');
     const run = await runScenario(loadScenario(writeDemoCopy(dir, '6h')), { outDir: path.join(dir, 'out'), quiet: true, steps: false });
