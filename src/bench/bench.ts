@@ -11,6 +11,7 @@
  *   W1        the demo satellite × 3 stations × 30 days, 1-s steps, all weather
  *             cases and links, every output written (steps.csv included) to a
  *             temporary folder.
+ *   W1-parquet  W1 with steps.parquet instead of steps.csv.
  *   W1-core   the same with no output file: the sweep and the summaries
  *             (daily statistics, mask findings) only.
  *   window-N  the run for N = 7, 28, 112 days, steps.csv off (per-day cost).
@@ -50,7 +51,7 @@ interface BenchCase {
   workers: number;
   /** 'run': runScenario with every output; 'core': sweep and summaries, no file; 'pipeline': the sweep only. */
   mode: 'run' | 'core' | 'pipeline';
-  steps: boolean;
+  steps: 'csv' | 'parquet' | 'none';
   withFloor: boolean;
 }
 
@@ -69,7 +70,8 @@ interface CaseResult extends BenchCase {
   linkStepsPerS: number;
   usPerLinkStep: number;
   maxRssMB: number;
-  stepsCsvMB: number | null;
+  /** The steps file's size (steps.csv or steps.parquet) and the seconds spent writing its rows. */
+  stepsMB: number | null;
   reportMB: number | null;
   floor?: Floor & { ratio: number };
   /** Where the time went (one worker only). */
@@ -78,13 +80,14 @@ interface CaseResult extends BenchCase {
 }
 
 const CASES: BenchCase[] = [
-  { id: 'W1', days: 30, stations: 3, workers: 1, mode: 'run', steps: true, withFloor: true },
-  { id: 'W1-core', days: 30, stations: 3, workers: 1, mode: 'core', steps: false, withFloor: true },
-  { id: 'window-7', days: 7, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
-  { id: 'window-28', days: 28, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
-  { id: 'window-112', days: 112, stations: 3, workers: 1, mode: 'run', steps: false, withFloor: false },
-  { id: 'st10-w1', days: 365, stations: 10, workers: 1, mode: 'pipeline', steps: false, withFloor: true },
-  { id: 'st10-w2', days: 365, stations: 10, workers: 2, mode: 'pipeline', steps: false, withFloor: true },
+  { id: 'W1', days: 30, stations: 3, workers: 1, mode: 'run', steps: 'csv', withFloor: true },
+  { id: 'W1-parquet', days: 30, stations: 3, workers: 1, mode: 'run', steps: 'parquet', withFloor: true },
+  { id: 'W1-core', days: 30, stations: 3, workers: 1, mode: 'core', steps: 'none', withFloor: true },
+  { id: 'window-7', days: 7, stations: 3, workers: 1, mode: 'run', steps: 'none', withFloor: false },
+  { id: 'window-28', days: 28, stations: 3, workers: 1, mode: 'run', steps: 'none', withFloor: false },
+  { id: 'window-112', days: 112, stations: 3, workers: 1, mode: 'run', steps: 'none', withFloor: false },
+  { id: 'st10-w1', days: 365, stations: 10, workers: 1, mode: 'pipeline', steps: 'none', withFloor: true },
+  { id: 'st10-w2', days: 365, stations: 10, workers: 2, mode: 'pipeline', steps: 'none', withFloor: true },
 ];
 
 /** FNV-1a over text pieces, fed one at a time. */
@@ -129,7 +132,7 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
   try {
     const t0 = process.hrtime.bigint();
     let p: PipelineResult;
-    let stepsCsvMB: number | null = null;
+    let stepsMB: number | null = null;
     let reportMB: number | null = null;
     if (c.mode === 'run') {
       p = (await runScenario(scenario, { outDir: path.join(tmp, 'out'), quiet: true, steps: c.steps, workers: c.workers, timings })).pipeline;
@@ -147,7 +150,7 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
       const f = fingerprinter();
       f.add(readFileSync(path.join(tmp, 'out', 'daily.csv'), 'utf8'));
       fingerprint = f.done();
-      if (c.steps) stepsCsvMB = statSync(path.join(tmp, 'out', 'steps.csv')).size / 1e6;
+      if (c.steps !== 'none') stepsMB = statSync(path.join(tmp, 'out', `steps.${c.steps}`)).size / 1e6;
       reportMB = statSync(path.join(tmp, 'out', 'report.html')).size / 1e6;
     } else {
       fingerprint = pipelineFingerprint(p);
@@ -156,7 +159,7 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
       ...c, wallS, moduleLoadS, tablesS,
       secondsPerDayWithStartup: (moduleLoadS + wallS) / c.days, secondsPerDayExclStartup: (wallS - tablesS) / c.days,
       linkSteps: p.linkSteps, stationSteps: p.stationSteps, gridTimes: p.gridTimes, passes: p.passes.length, sgp4Calls: p.sgp4Calls,
-      linkStepsPerS: p.linkSteps / wallS, usPerLinkStep: (wallS * 1e6) / p.linkSteps, maxRssMB, stepsCsvMB, reportMB, fingerprint,
+      linkStepsPerS: p.linkSteps / wallS, usPerLinkStep: (wallS * 1e6) / p.linkSteps, maxRssMB, stepsMB, reportMB, fingerprint,
       ...(timings ? { timings } : {}),
     };
     if (c.withFloor) {
@@ -171,7 +174,7 @@ async function runCase(c: BenchCase, moduleLoadS: number): Promise<CaseResult> {
 
 function table(results: CaseResult[]): string {
   const head = ['case', 'stations', 'days', 'workers', 'outputs', 'wall_s', 'start-up_s', 's/day incl. start-up', 's/day excl. start-up', 'link-steps', 'µs/link-step', 'floor_s', 'floor ratio', 'max RSS MB'];
-  const outputs = { run: (r: CaseResult) => (r.steps ? 'all' : 'all but steps.csv'), core: () => 'none (sweep + summaries)', pipeline: () => 'pipeline only' };
+  const outputs = { run: (r: CaseResult) => (r.steps === 'none' ? 'all but steps' : `all, steps.${r.steps}`), core: () => 'none (sweep + summaries)', pipeline: () => 'pipeline only' };
   const rows = results.map((r) => [
     r.id, String(r.stations), String(r.days), String(r.workers), outputs[r.mode](r),
     r.wallS.toFixed(2), (r.moduleLoadS + r.tablesS).toFixed(2), r.secondsPerDayWithStartup.toFixed(3), r.secondsPerDayExclStartup.toFixed(3),
@@ -188,7 +191,7 @@ function breakdown(r: CaseResult): string | null {
   if (!t) return null;
   const parts: [string, number][] = [
     ['pass search', t.passSearchS], ['elevation tables', t.tablesS], ['propagation', t.propagationS], ['geometry', t.geometryS],
-    ['budget', t.budgetS], ['accumulators', t.accumulatorsS], ['steps.csv rows', t.stepsS], ['other outputs', t.outputsS],
+    ['budget', t.budgetS], ['accumulators', t.accumulatorsS], ['steps rows', t.stepsS], ['other outputs', t.outputsS],
   ];
   const known = parts.reduce((s, [, v]) => s + v, 0);
   parts.push(['rest (planning, merging, start of run)', Math.max(0, r.wallS - known)]);
@@ -217,7 +220,7 @@ async function main(): Promise<void> {
   for (const r of results) {
     if (!r.floor) continue;
     lines.push(`${r.id} floor: ${r.floor.scanInstants} pass-finder instants + ${r.floor.gridInstants} in-pass grid instants, bare satellite.js ${(r.floor.instantsPerS / 1e6).toFixed(2)}M instants/s; the run made ${r.sgp4Calls} SGP4 calls`
-      + `${r.stepsCsvMB !== null ? `; steps.csv ${r.stepsCsvMB.toFixed(0)} MB` : ''}${r.reportMB !== null ? `, report.html ${r.reportMB.toFixed(1)} MB` : ''}`);
+      + `${r.stepsMB !== null ? `; steps.${r.steps} ${r.stepsMB.toFixed(1)} MB written in ${r.timings ? r.timings.stepsS.toFixed(2) : '?'} s` : ''}${r.reportMB !== null ? `, report.html ${r.reportMB.toFixed(1)} MB` : ''}`);
   }
   for (const r of results) { const b = breakdown(r); if (b) lines.push(b); }
   const win = ['window-7', 'window-28', 'window-112'].map((id) => results.find((r) => r.id === id)).filter((r): r is CaseResult => !!r);
@@ -227,6 +230,9 @@ async function main(): Promise<void> {
     const excl = win.map((r) => r.secondsPerDayExclStartup);
     lines.push(`window scaling (${win.map((r) => r.id).join(' / ')}): s/day incl. start-up ${incl.map((x) => x.toFixed(3)).join(' / ')} (spread ${(spread(incl) * 100).toFixed(1)} %); excl. start-up ${excl.map((x) => x.toFixed(3)).join(' / ')} (spread ${(spread(excl) * 100).toFixed(1)} %)`);
   }
+  const csv = results.find((r) => r.id === 'W1');
+  const pq = results.find((r) => r.id === 'W1-parquet');
+  if (csv?.stepsMB && pq?.stepsMB) lines.push(`W1 steps file: steps.parquet ${pq.stepsMB.toFixed(1)} MB = ${((100 * pq.stepsMB) / csv.stepsMB).toFixed(1)} % of steps.csv ${csv.stepsMB.toFixed(1)} MB; outputs ${csv.fingerprint === pq.fingerprint ? 'identical' : 'DIFFER'} otherwise`);
   const s1 = results.find((r) => r.id === 'st10-w1');
   const s2 = results.find((r) => r.id === 'st10-w2');
   if (s1 && s2) {

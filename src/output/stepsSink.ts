@@ -29,10 +29,10 @@ export interface ChunkStepsFile {
   close(): void;
 }
 
-export async function createStepsSink(out: Writable, format: StepsFormat, cases: readonly WeatherCase[]): Promise<StepsSink> {
+export async function createStepsSink(out: Writable, format: StepsFormat, cases: readonly WeatherCase[], parquetRowGroupRows?: number): Promise<StepsSink> {
   if (format === 'parquet') {
     await loadZstd();
-    const w = new StepsParquetWriter(out, cases);
+    const w = new StepsParquetWriter(out, cases, parquetRowGroupRows);
     return { window: (win) => w.window(win), appendChunkFile: (f) => w.appendChunkFile(f), close: () => w.close() };
   }
   const fmt = createStepsCsvFormatter(cases);

@@ -40,6 +40,8 @@ export interface ParallelPipelineOptions {
   stepsOut?: Writable | null;
   /** Its format (default csv). */
   stepsFormat?: StepsFormat;
+  /** steps.parquet rows per row group (default ROW_GROUP_ROWS; tests of the cuts). */
+  parquetRowGroupRows?: number;
   collectSeries?: boolean;
   seriesMaxPoints?: number;
   /** With collectSeries: series only for the first this many pass-link sections in time order (default SERIES_MAX_SECTIONS). */
@@ -78,7 +80,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   const { scenario } = o;
   const workers = o.workers ?? 1;
   const stepsFormat = o.stepsFormat ?? 'csv';
-  const writer = o.stepsOut ? await createStepsSink(o.stepsOut, stepsFormat, scenario.weatherCases) : null;
+  const writer = o.stepsOut ? await createStepsSink(o.stepsOut, stepsFormat, scenario.weatherCases, o.parquetRowGroupRows) : null;
 
   if (workers <= 1) {
     const result = await runPipeline({

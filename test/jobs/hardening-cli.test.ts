@@ -51,7 +51,27 @@ describe('the run-size line', () => {
     expect(q.code).toBe(0);
     expect(q.stderr).toBe('');
     const n = await runCli(['run', sixHours, '--out', path.join(tmp, 'nosteps'), '--no-steps']);
-    expect(n.stderr).toMatch(/steps\.csv not written \(it would be about [\d.]+ MB\)/);
+    expect(n.stderr).toMatch(/steps not written \(steps\.csv would be about [\d.]+ MB\)/);
+  });
+
+  it('with --steps parquet: steps.parquet and its estimate, within 25 % of what a 1-day run wrote', async () => {
+    mkdirSync(path.join(tmp, 'day-pq'));
+    const out = path.join(tmp, 'size-pq');
+    const r = await runCli(['run', writeDemoCopy(path.join(tmp, 'day-pq'), '1d'), '--out', out, '--steps', 'parquet']);
+    expect(r.code, r.stderr).toBe(0);
+    const m = /steps\.parquet about ([\d.]+) MB \(steps\.csv would be about [\d.]+ MB\)/.exec(r.stderr);
+    expect(m, r.stderr).not.toBeNull();
+    expect(existsSync(path.join(out, 'steps.csv'))).toBe(false);
+    const bytes = readFileSync(path.join(out, 'steps.parquet')).length;
+    expect(Math.abs(Number(m![1]) * 1e6 / bytes - 1)).toBeLessThan(0.25);
+  });
+
+  it('--steps with an unknown format: one line naming the allowed ones, exit 2, no output folder', async () => {
+    const out = path.join(tmp, 'bad-steps');
+    const r = await runCli(['run', sixHours, '--out', out, '--steps', 'xlsx']);
+    expect(r.code).toBe(2);
+    expect(oneLine(r.stderr)).toEqual(['passbudget: --steps: "xlsx" is not a steps format (allowed: csv, parquet, none)']);
+    expect(existsSync(out)).toBe(false);
   });
 });
 

@@ -67,6 +67,7 @@ export const BAD_CASES: BadCase[] = [
   { name: 'receiver-without-noise', edits: [{ from: 'noise_figure_db: 1.2', to: 'feed_loss_db: 0.3' }], lineOf: '        receiver:\n          feed_loss_db', path: 'stations[0].terminals.dish.receiver', contains: ['missing noise_figure_db or noise_temperature_k'] },
   { name: 'network-order-unknown-station', edits: [{ from: 'order: [Beta, Alpha]', to: 'order: [Beta, Omega]' }], lineOf: 'order:', path: 'network.order[1]', contains: ['unknown station "Omega"'] },
   { name: 'pattern-not-from-zero', edits: [{ from: 'pattern: [[0, 30], [5, 20], [20, 0], [180, -10]]', to: 'pattern: [[2, 30], [5, 20], [20, 0], [180, -10]]' }], lineOf: 'pattern:', path: 'stations[1].terminals.dish.antenna.pattern[0][0]', contains: ['start at off-boresight 0'] },
+  { name: 'steps-format-unknown', edits: [{ from: '  steps: true', to: '  steps: xlsx' }], lineOf: '  steps: xlsx', path: 'output.steps', contains: ['must be "csv" or "parquet" or "none" or true or false (got "xlsx")'] },
   { name: 'ber-out-of-range', edits: [{ from: 'modulation: bpsk', to: 'modulation: bpsk\n          ber: 0.7' }], lineOf: 'ber: 0.7', path: 'satellites[0].links[1].modcod.ber', contains: ['must be ≤ 0.4 (got 0.7)'] },
 ];
 

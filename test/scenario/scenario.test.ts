@@ -178,7 +178,7 @@ describe('base fixture (every branch of the file format)', () => {
     expect(s.maskFraction).toBe(0.9);
     // 2 per decade from 1 kb/s to 100 kb/s: 10^(k/2) × 1000.
     expect(s.rateCandidatesBps).toEqual([1000, 3162.28, 10000, 31622.8, 100000]);
-    expect(s.output).toEqual({ dir: path.join(PROJECT_ROOT, 'fixtures/scenarios/out/base'), steps: true });
+    expect(s.output).toEqual({ dir: path.join(PROJECT_ROOT, 'fixtures/scenarios/out/base'), steps: 'csv' });
     expect(s.window.stepS).toBe(10);
     expect(s.warnings.some((w) => w.includes('element epoch'))).toBe(false);
   });
