@@ -7,10 +7,7 @@
  */
 import { createReadStream, existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { decompress as zstdDecompress } from '@bokuweb/zstd-wasm';
 import { parse } from 'csv-parse';
-import { asyncBufferFromFile, parquetMetadataAsync, parquetReadObjects } from 'hyparquet';
-import { loadZstd } from './stepsParquet.js';
 import type { StepsFormat } from './stepsSink.js';
 import { STEPS_FILE } from './stepsSink.js';
 
@@ -57,6 +54,10 @@ async function* csvRecords(file: string, weather: readonly string[]): AsyncGener
 const numOrNaN = (v: unknown): number => (typeof v === 'number' ? v : NaN);
 
 async function* parquetRecords(file: string, weather: readonly string[]): AsyncGenerator<StepRecord> {
+  // Loaded here, not at start-up: only a folder with steps.parquet needs them.
+  const { asyncBufferFromFile, parquetMetadataAsync, parquetReadObjects } = await import('hyparquet');
+  const { decompress: zstdDecompress } = await import('@bokuweb/zstd-wasm');
+  const { loadZstd } = await import('./stepsParquet.js');
   await loadZstd();
   const buffer = await asyncBufferFromFile(file);
   const metadata = await parquetMetadataAsync(buffer);

@@ -1,14 +1,15 @@
 /**
  * The steps file, whichever its format: what the sweep hands it (windows in
  * this thread, chunk files from worker threads) and how it ends. The sweep
- * sees only these two small interfaces, so the formats live here.
+ * sees only these two small interfaces, so the formats live here. The
+ * Parquet modules (hyparquet-writer, zstd) load only when a run asks for
+ * steps.parquet, so no other command pays for them at start-up.
  */
 import { closeSync, createReadStream, openSync, writeSync } from 'node:fs';
 import type { Writable } from 'node:stream';
 import type { WeatherCase } from '../budget/types.js';
 import type { StepWindow } from '../sweep/window.js';
 import { ChunkedTextWriter, createStepsCsvFormatter, writeWindowRows, type RowTarget } from './stepsCsv.js';
-import { ChunkBlockFile, loadZstd, StepsParquetWriter, stepsParquetColumns } from './stepsParquet.js';
 
 /** Formats of the steps file (`output.steps` without `none`). */
 export type StepsFormat = 'csv' | 'parquet';
@@ -31,6 +32,7 @@ export interface ChunkStepsFile {
 
 export async function createStepsSink(out: Writable, format: StepsFormat, cases: readonly WeatherCase[], parquetRowGroupRows?: number): Promise<StepsSink> {
   if (format === 'parquet') {
+    const { loadZstd, StepsParquetWriter } = await import('./stepsParquet.js');
     await loadZstd();
     const w = new StepsParquetWriter(out, cases, parquetRowGroupRows);
     return { window: (win) => w.window(win), appendChunkFile: (f) => w.appendChunkFile(f), close: () => w.close() };
@@ -60,8 +62,9 @@ function fileTarget(fd: number): RowTarget {
 }
 
 /** A worker's chunk file maker for this format (formatters built once per thread). */
-export function chunkStepsFiles(format: StepsFormat, cases: readonly WeatherCase[]): (file: string) => ChunkStepsFile {
+export async function chunkStepsFiles(format: StepsFormat, cases: readonly WeatherCase[]): Promise<(file: string) => ChunkStepsFile> {
   if (format === 'parquet') {
+    const { ChunkBlockFile, stepsParquetColumns } = await import('./stepsParquet.js');
     const specs = stepsParquetColumns(cases);
     return (file) => {
       const fd = openSync(file, 'w');

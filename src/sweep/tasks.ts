@@ -9,7 +9,7 @@
 import { join } from 'node:path';
 import type { ElevationTable } from '../budget/atmosphere.js';
 import { createLinkEngine } from '../budget/engine.js';
-import { chunkStepsFiles, type StepsFormat } from '../output/stepsSink.js';
+import { chunkStepsFiles, type ChunkStepsFile, type StepsFormat } from '../output/stepsSink.js';
 import { createOrbit } from '../passes/find.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
 import type { ResolvedScenario } from '../scenario/types.js';
@@ -81,7 +81,7 @@ export function createTaskRunner(init: WorkerInit, post: (m: FromWorker, transfe
     if (!s) { s = createSweeper(scenario, layoutOf(satIndex), tables.get(satIndex), orbitFor(satIndex)); sweepers.set(satIndex, s); }
     return s;
   };
-  const chunkFile = init.stepsDir ? chunkStepsFiles(init.stepsFormat, scenario.weatherCases) : null;
+  let chunkFile: ((file: string) => ChunkStepsFile) | null = null;
 
   return async (msg) => {
     if (msg.type === 'tables') {
@@ -103,6 +103,7 @@ export function createTaskRunner(init: WorkerInit, post: (m: FromWorker, transfe
       post({ type: 'slab', task: msg.task, events, sgp4Calls: orbit.sgp4Calls - before });
       return;
     }
+    if (init.stepsDir && !chunkFile) chunkFile = await chunkStepsFiles(init.stepsFormat, scenario.weatherCases);
     const stepsFile = chunkFile && init.stepsDir ? join(init.stepsDir, `s${msg.satIndex}-c${msg.chunk}.${init.stepsFormat}`) : null;
     const target = chunkFile && stepsFile ? chunkFile(stepsFile) : null;
     let doneS = 0;
