@@ -17,6 +17,7 @@ import { csvText } from '../output/csv.js';
 import { jsonText, summaryJson } from '../output/json.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
+import { whatIfPayload, whatIfRefusal } from '../output/report/whatIfData.js';
 import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import {
@@ -113,6 +114,7 @@ export function reportInput(
   return {
     summary, passes: passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra,
     ...(p.envelopes.length > 0 ? { envelopes: linkEnvelopes(p.envelopes) } : {}),
+    whatIf: p.whatIf ? whatIfPayload(scenario, p.whatIf) : { missing: whatIfRefusal(scenario) ?? 'The run collected no what-if columns.' },
   };
 }
 
@@ -131,6 +133,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
       scenario,
       workers: opts.workers,
       collectSeries: true,
+      collectWhatIf: whatIfRefusal(scenario) === null,
       stepsOut: writeSteps ? out.stream('steps.csv') : null,
       onProgress: progress.update,
       timings: opts.timings,
