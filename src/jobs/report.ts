@@ -213,8 +213,9 @@ function whatIfMissing(dir: string, what: string): string {
  * The what-if columns read back from the steps rows (one part per pass: mask
  * elevation, C/N0 per station link and case), with the link rules and
  * station ranks from the run's scenario file (named in summary.json).
- * Elevation is the steps' geometric elevation: a station masking on apparent
- * elevation is noted.
+ * Elevation is the steps' elevation_deg (geometric): for a station whose
+ * mask is on apparent elevation the rebuilt panel's mask floor is tested on
+ * geometric elevation (the run's own report uses the apparent one).
  */
 function whatIfFromSteps(summary: RunSummary, passes: PassLinkSummary[]):
   { missing: string } | { onRow: (r: Record<string, string>) => void; finish: () => WhatIfPayload | { missing: string } } {
