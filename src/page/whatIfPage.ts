@@ -87,6 +87,12 @@ function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
 <div class="whatif-out"></div>`;
     root.appendChild(box);
     const base = whatIfDetail(data, { link });
+    // The link's drawn pass sections: each shows its what-if verdict and volume beside the run's while a control is moved.
+    const drawn = new Map<string, HTMLElement>();
+    document.querySelectorAll<HTMLElement>('details.pass[data-link]').forEach((d) => {
+      const span = d.querySelector<HTMLElement>('.whatif-pass');
+      if (d.dataset.link === link && span && d.dataset.pass) drawn.set(d.dataset.pass, span);
+    });
     const out = box.querySelector('.whatif-out') as HTMLElement;
     const marker = box.querySelector('.whatif-changed') as HTMLElement;
     const read = (): { change: WhatIfChange; changed: boolean; weather: string } => {
@@ -120,6 +126,15 @@ function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
           + `<td class="verdict-${r?.verdict ?? 'unusable'}">${esc(r?.verdict ?? '–')}</td><td class="verdict-${c.verdict}">${esc(c.verdict)}</td>`
           + `<td class="num">${esc(r ? bits(r.adaptiveVolumeBits ?? r.fixedVolumeBits) : '–')}</td><td class="num">${esc(bits(v))}</td></tr>`;
       }).join('');
+      const seen = new Set<string>();
+      for (const p of now.passes) {
+        const span = drawn.get(p.passId);
+        if (!span || seen.has(p.passId)) continue;
+        seen.add(p.passId);
+        const c = p.cases.find((x) => x.weather === weather)!;
+        span.innerHTML = changed ? ` · what-if ${esc(weather)}: <span class="verdict-${c.verdict}">${esc(c.verdict)}</span>, ${esc(bits(c.adaptiveVolumeBits ?? c.fixedVolumeBits))}` : '';
+      }
+      if (changed) for (const [id, span] of drawn) if (!seen.has(id)) span.textContent = ' · what-if: below the mask';
       out.innerHTML = `<div class="charts"><figure><table class="kv whatif-figures"><thead><tr><th></th><th class="num">run</th><th class="num">what-if</th></tr></thead><tbody>`
         + row('network volume per day', esc(bits(a.volumePerDay)), esc(bits(b.volumePerDay)))
         + row('usable passes per day', fixed(a.usablePassesPerDay, 1), fixed(b.usablePassesPerDay, 1))
@@ -144,5 +159,7 @@ const root = document.getElementById('whatif-panel');
 if (block && root) {
   const data = decodeWhatIfPayload(JSON.parse(block.textContent ?? '{}') as WhatIfPayload, fromBase64);
   (window as unknown as { passbudgetWhatIf: (c: WhatIfChange) => unknown }).passbudgetWhatIf = (c) => whatIf(data, c);
-  setup(data, root, Number(root.dataset.maxPasses ?? '300'));
+  // The pass sections come after this script in the page: draw once the document is parsed.
+  const start = () => setup(data, root, Number(root.dataset.maxPasses ?? '300'));
+  if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', start); else start();
 }

@@ -139,12 +139,17 @@ describe.skipIf(!present)('what-if panel of the demo week in headless Chromium',
     const after = await cells.allTextContents();
     expect(after[0]).not.toBe(before[0]); // network volume per day
     expect(await box.locator('.whatif-changed').isVisible()).toBe(true);
+    // The link's drawn pass sections show their what-if verdict and volume.
+    const marks = page.locator('details.pass[data-link="x-band"] .whatif-pass');
+    expect(await marks.count()).toBeGreaterThan(0);
+    expect(await marks.first().textContent()).toMatch(/what-if clear: (usable|marginal|unusable), [\d.]+ [kMGT]?bit/);
     await box.locator('input[data-key="mask_deg"]').fill('10');
     mkdirSync(path.join(ROOT, 'out'), { recursive: true });
     await page.locator('#whatif').screenshot({ path: path.join(ROOT, 'out', 'whatif-panel.png') });
     await box.locator('[data-reset]').click();
     expect(await cells.allTextContents()).toEqual(before);
     expect(await box.locator('.whatif-changed').isHidden()).toBe(true);
+    expect(await marks.first().textContent()).toBe('');
     expect(errors).toEqual([]);
   });
 });
