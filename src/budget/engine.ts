@@ -27,7 +27,7 @@
  * (P.834 refraction, from the sample), clamped to 0–90°.
  */
 import {
-  adaptiveModeTable, BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossColumnDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
+  BOLTZMANN_DBW_PER_K_HZ, checkAxialRatio, freeSpaceLossColumnDB, MAX_POLARISATION_LOSS_DB, polarisationLossDB,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
 import { dopplerColumns } from '../geometry/doppler.js';
@@ -44,6 +44,7 @@ import { azElSeparationDeg, lineOfSightTeme, spacecraftOffBoresightColumn, unitV
 import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from './linkColumns.js';
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
+import { applyCaseRule, createCaseRule } from './caseRule.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
 
 export interface LinkEngineOptions {
@@ -217,32 +218,22 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const rateLimited = gp.kind === 'track' && (Number.isFinite(maxAzRate) || Number.isFinite(maxElRate));
   const mount: MountState = createMountState();
 
-  // Modulation and coding constants.
+  // Modulation and coding constants (the per-step rule itself is caseRule.ts).
   const mc = link.modcod;
-  const impl = link.implementationLossDB;
-  const reqMargin = link.requiredMarginDB;
-  let symbolRate: number, bitRate: number, rsDB: number, rbDB: number;
+  let symbolRate: number, bitRate: number;
   let modes: AdaptiveMode[] = [];
-  let lowestIndex = 0;
-  let modeEffDB: number[] = [];
   if (mc.kind === 'fixed') {
     bitRate = mc.bitRateBps;
     symbolRate = mc.bitRateBps / mc.bitsPerSymbol;
-    rbDB = 10 * Math.log10(bitRate);
-    rsDB = 10 * Math.log10(symbolRate);
   } else {
     symbolRate = mc.symbolRateBaud;
     bitRate = NaN;
-    rsDB = 10 * Math.log10(symbolRate);
-    rbDB = NaN;
     modes = mc.modes;
     modes.forEach((m, i) => {
       if (!(m.efficiencyBitsPerSymbol > 0) || !Number.isFinite(m.requiredEsN0DB)) {
         throw new InputError(`link ${link.name}: modcod.modes[${i}] (${m.name}) needs efficiencyBitsPerSymbol > 0 and a finite requiredEsN0DB`);
       }
-      if (m.requiredEsN0DB < modes[lowestIndex].requiredEsN0DB) lowestIndex = i;
     });
-    modeEffDB = modes.map((m) => 10 * Math.log10(m.efficiencyBitsPerSymbol));
   }
 
   const own = createStepBudget(weatherCases);
@@ -250,10 +241,8 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     atmosphericElevationDeg: NaN, txPowerDBW, txLineLossDB, txGainDBi: NaN, rxGainDBi: NaN, rxFeedLossDB: ctx.rxFeedLossDB,
     spacecraftOffBoresightDeg: NaN, groundOffBoresightDeg: NaN,
   };
-  const modeTable = mc.kind === 'adaptive' ? adaptiveModeTable(modes, reqMargin) : null;
-  const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
+  const caseRule = createCaseRule(link);
   const modeNames = modes.map((m) => m.name);
-  const modeReq = Float64Array.from(modes, (m) => m.requiredEsN0DB);
   // Ground pointing loss of a program track when the mount does not lag (lag 0: the error alone).
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
@@ -337,49 +326,11 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
    * the received gain off boresight and the required Eb/N0 columns.
    */
   function caseTerms(c: CaseColumns, n: number, base: Float64Array, rxGainCol: Float64Array, full: boolean): void {
-    const rxPeak = rxAnt.peakGainDBi * 1, rs = rsDB * 1, rb = rbDB * 1, im = impl * 1, rm = reqMargin * 1, br = bitRate * 1;
-    const atm = c.atmosphericDB, gt = c.gOverTDBK, cn0Col = c.cOverN0DBHz, esCol = c.esN0DB, ebCol = c.ebN0DB;
-    const reqCol = c.requiredEbN0DB, marginCol = c.marginDB, usableCol = c.usable, modeCol = c.mode, rateCol = c.informationRateBps;
-    if (mc.kind === 'fixed') {
-      const req = mc.requiredEbN0DB * 1;
-      for (let i = 0; i < n; i++) {
-        const cn0 = base[i] - atm[i] + gt[i];
-        cn0Col[i] = cn0;
-        esCol[i] = cn0 - rs;
-        const ebn0 = cn0 - rb;
-        ebCol[i] = ebn0;
-        const margin = ebn0 - req - im;
-        marginCol[i] = margin;
-        const usable = margin >= rm;
-        usableCol[i] = usable ? 1 : 0;
-        modeCol[i] = -1;
-        rateCol[i] = usable ? br : 0;
-      }
-      if (full) { reqCol.fill(req, 0, n); for (let i = 0; i < n; i++) gt[i] += rxGainCol[i] - rxPeak; }
-      return;
-    }
-    for (let i = 0; i < n; i++) {
-      const cn0 = base[i] - atm[i] + gt[i];
-      cn0Col[i] = cn0;
-      esCol[i] = cn0 - rs;
-    }
+    const rxPeak = rxAnt.peakGainDBi * 1;
+    const atm = c.atmosphericDB, gt = c.gOverTDBK, cn0Col = c.cOverN0DBHz;
+    for (let i = 0; i < n; i++) cn0Col[i] = base[i] - atm[i] + gt[i];
     if (full) for (let i = 0; i < n; i++) gt[i] += rxGainCol[i] - rxPeak;
-    // Effective Es/N0 (after the implementation loss) into the margin column, then the mode chosen for it.
-    for (let i = 0; i < n; i++) marginCol[i] = esCol[i] - im;
-    modeTable!.chooseColumn(marginCol, n, modeCol);
-    for (let i = 0; i < n; i++) {
-      const effective = marginCol[i];
-      const chosen = modeCol[i];
-      const mi = chosen >= 0 ? chosen : lowestIndex;
-      const req = modeReq[mi];
-      const effDB = modeEffDB[mi];
-      marginCol[i] = effective - req;
-      // Eb/N0 = Es/N0 − 10 log10(information bits per symbol) of the mode in use.
-      ebCol[i] = esCol[i] - effDB;
-      reqCol[i] = req - effDB;
-      usableCol[i] = chosen >= 0 ? 1 : 0;
-      rateCol[i] = chosen >= 0 ? modeRates[chosen] : 0;
-    }
+    applyCaseRule(caseRule, c, n, full);
   }
 
   function evaluateColumns(

@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import { rebuildReport } from '../jobs/report.js';
+import { rebuildReportWithNotes } from '../jobs/report.js';
 import { examples } from './examples.js';
 
 export function register(program: Command): void {
@@ -11,7 +11,8 @@ export function register(program: Command): void {
       ['passbudget report out/orbilux-demo', 'report.html again from the files of a run (after passbudget mask or rate, with their charts)'],
     ]))
     .action(async (dir: string) => {
-      const file = await rebuildReport(dir);
+      const { file, whatIfMissing } = await rebuildReportWithNotes(dir);
+      if (whatIfMissing) process.stderr.write(`${whatIfMissing}\n`);
       process.stdout.write(`report written: ${file}\n`);
     });
 }

@@ -16,6 +16,15 @@ import { renderReport, REPORT_MAX_PASS_SECTIONS } from '../output/report/index.j
 import type { LinkEnvelope, PassSeries, ReportInput } from '../output/report/types.js';
 import { envelopeAdd, ENVELOPE_BINS, type StationLinkEnvelope } from '../sweep/types.js';
 import { linkEnvelopes } from './run.js';
+import type { RunSummary } from '../analysis/types.js';
+import type { WhatIfPayload } from '../analysis/whatIf.js';
+import type { Pass } from '../passes/types.js';
+import { loadScenario } from '../scenario/index.js';
+import type { ResolvedScenario } from '../scenario/types.js';
+import { scenarioLayouts } from '../sweep/layout.js';
+import type { WhatIfSatellite } from '../sweep/types.js';
+import { WHATIF_CN0_QUANTUM_DB, WHATIF_ELEVATION_QUANTUM_DEG, WHATIF_MISSING } from '../sweep/whatIfCollect.js';
+import { whatIfPayload, whatIfRefusal } from '../output/report/whatIfData.js';
 
 const SERIES_MAX_POINTS = 120;
 
@@ -87,13 +96,14 @@ export function dailyFromCsv(rows: Record<string, string>[]): DailyRow[] {
  * the report's order, which passes.json already has), and the margin envelope
  * over every step — the same bounded data `passbudget run` hands the report.
  */
-async function fromSteps(rows: AsyncIterable<StepRecord>, passes: PassLinkSummary[], weather: string[]): Promise<{ series: PassSeries[]; envelopes: LinkEnvelope[] }> {
+async function fromSteps(rows: AsyncIterable<StepRecord>, passes: PassLinkSummary[], weather: string[], onRow?: (r: StepRecord) => void): Promise<{ series: PassSeries[]; envelopes: LinkEnvelope[] }> {
   const every = new Map<string, number>();
   for (const p of passes.slice(0, REPORT_MAX_PASS_SECTIONS)) every.set(`${p.passId}|${p.link}`, Math.max(1, Math.ceil(p.steps / SERIES_MAX_POINTS)));
   const series = new Map<string, PassSeries & { n: number }>();
   const envelopes: StationLinkEnvelope[] = [];
   const envOf = new Map<string, StationLinkEnvelope[]>();
   for await (const r of rows) {
+    onRow?.(r);
     const el = r.elevationDeg;
     const linkKey = `${r.station}|${r.link}`;
     let envs = envOf.get(linkKey);
@@ -140,7 +150,11 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
   const passes = passesFromJson(readJson<PassJson[]>(join(dir, 'passes.json')));
   const daily = dailyFromCsv(readCsv(join(dir, 'daily.csv')));
   const stepsFile = findStepsFile(dir);
-  const steps = stepsFile ? await fromSteps(readStepRecords(stepsFile.file, stepsFile.format, summary.weatherCases), passes, summary.weatherCases) : null;
+  // The what-if panel's columns come from the steps rows; its rules need the run's scenario (link rates, codes, margins).
+  const wi = stepsFile ? whatIfFromSteps(summary, passes) : { missing: whatIfMissing(dirIn, 'no steps.csv or steps.parquet (the run had --no-steps or output.steps: none)') };
+  const steps = stepsFile
+    ? await fromSteps(readStepRecords(stepsFile.file, stepsFile.format, summary.weatherCases), passes, summary.weatherCases, 'onRow' in wi ? wi.onRow : undefined)
+    : null;
   const series = steps?.series ?? [];
   let maskTrade: MaskTradePoint[] | undefined;
   let maskFindings: MaskFinding[] | undefined;
@@ -166,13 +180,91 @@ export async function loadReportInput(dirIn: string): Promise<ReportInput> {
     horizonMasks: summary.horizonMasks ?? {},
     maskTrade, maskFindings, rateTrade,
     ...(steps && steps.envelopes.length > 0 ? { envelopes: steps.envelopes } : {}),
+    whatIf: 'onRow' in wi ? wi.finish() : wi,
   };
 }
 
-/** Rebuild `report.html` in an output folder; returns its path. */
+/** Rebuild `report.html` in an output folder; returns its path and, when the page has no what-if panel, why. */
 export async function rebuildReport(dir: string): Promise<string> {
+  return (await rebuildReportWithNotes(dir)).file;
+}
+
+export async function rebuildReportWithNotes(dir: string): Promise<{ file: string; whatIfMissing: string | null }> {
   const input = await loadReportInput(dir);
   const file = join(resolve(dir), 'report.html');
   writeFileAtomic(file, renderReport(input));
-  return file;
+  return { file, whatIfMissing: input.whatIf && 'missing' in input.whatIf ? input.whatIf.missing : null };
+}
+
+function whatIfMissing(dir: string, what: string): string {
+  return `No what-if panel: ${dir} has ${what}; it needs the per-step columns (steps.csv) and the run's scenario file. The panel of the report written by passbudget run has neither need.`;
+}
+
+/**
+ * The what-if columns read back from the steps rows (one part per pass: mask
+ * elevation, C/N0 per station link and case), with the link rules and
+ * station ranks from the run's scenario file (named in summary.json).
+ * Elevation is the steps' elevation_deg (geometric): for a station whose
+ * mask is on apparent elevation the rebuilt panel's mask floor is tested on
+ * geometric elevation (the run's own report uses the apparent one).
+ */
+function whatIfFromSteps(summary: RunSummary, passes: PassLinkSummary[]):
+  { missing: string } | { onRow: (r: StepRecord) => void; finish: () => WhatIfPayload | { missing: string } } {
+  let scenario: ResolvedScenario;
+  try {
+    scenario = loadScenario(summary.scenarioFile);
+  } catch (e) {
+    return { missing: whatIfMissing(summary.scenarioFile, `no readable scenario (${(e as Error).message.split('\n')[0]})`) };
+  }
+  const refusal = whatIfRefusal(scenario);
+  if (refusal) return { missing: refusal };
+  const qEl = 1 / WHATIF_ELEVATION_QUANTUM_DEG, qC = 1 / WHATIF_CN0_QUANTUM_DB;
+  const q = (x: number, k: number) => (Number.isFinite(x) ? Math.round(x * k) : WHATIF_MISSING);
+  const layouts = scenarioLayouts(scenario);
+  const passInfo = new Map(passes.map((p) => [p.passId, p]));
+  interface Acc { k0: number; el: number[]; cn0: Map<string, number[][]> }
+  const byPass = new Map<string, Acc>();
+  const { startS, stepS } = scenario.window;
+  const cases = scenario.weatherCases.map((w) => w.name);
+  // The steps file's cases are the run's (summary.json); the scenario's are matched to them by name.
+  const inFile = cases.map((w) => summary.weatherCases.indexOf(w));
+  return {
+    onRow(r) {
+      let a = byPass.get(r.passId);
+      if (!a) { a = { k0: Math.round((r.timeS - startS) / stepS), el: [], cn0: new Map() }; byPass.set(r.passId, a); }
+      let cols = a.cn0.get(r.link);
+      if (!cols) { cols = cases.map(() => []); a.cn0.set(r.link, cols); }
+      if (cols[0].length === a.el.length) a.el.push(q(r.elevationDeg, qEl));
+      cases.forEach((_w, ci) => { const k = inFile[ci]; cols![ci].push(k < 0 ? WHATIF_MISSING : q(r.cases[k].cOverN0DBHz, qC)); });
+    },
+    finish() {
+      const sats: WhatIfSatellite[] = layouts.map((layout) => {
+        const stationIndex = new Map(layout.stations.map((st, i) => [st.entry.station.name, i]));
+        const parts: number[] = [], el: number[] = [], cn0: number[] = [];
+        const list: Pass[] = [], ids: string[] = [];
+        for (const [id, a] of byPass) {
+          const p = passInfo.get(id);
+          if (!p || p.satellite !== layout.satellite) continue;
+          const s = stationIndex.get(p.station);
+          if (s === undefined) continue;
+          const n = a.el.length;
+          parts.push(s, list.length, a.k0, n);
+          list.push({ index: 0, satellite: p.satellite, station: p.station, aosS: p.aosS, tcaS: p.tcaS, losS: p.losS, durationS: p.durationS,
+            maxElevationDeg: p.maxElevationDeg, aosAzimuthDeg: NaN, tcaAzimuthDeg: NaN, losAzimuthDeg: NaN, minRangeKm: NaN, clippedStart: p.clippedStart, clippedEnd: p.clippedEnd });
+          ids.push(id);
+          for (const x of a.el) el.push(x);
+          for (const link of layout.stations[s].links) {
+            const cols = a.cn0.get(link.name);
+            for (let ci = 0; ci < cases.length; ci++) for (let i = 0; i < n; i++) cn0.push(cols?.[ci][i] ?? WHATIF_MISSING);
+          }
+        }
+        return {
+          satIndex: layout.satIndex, satellite: layout.satellite,
+          stations: layout.stations.map((st) => ({ name: st.entry.station.name, stationIndex: st.stationIndex, links: st.links })),
+          passes: list, passIds: ids, parts: Int32Array.from(parts), elevation: Int32Array.from(el), cn0: Int32Array.from(cn0),
+        };
+      });
+      return whatIfPayload(scenario, sats);
+    },
+  };
 }

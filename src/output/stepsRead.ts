@@ -21,7 +21,7 @@ export interface StepRecord {
   azimuthDeg: number;
   mountLimited: boolean;
   /** Per weather case, in the order asked for. */
-  cases: { marginDB: number; ebN0DB: number; usable: boolean }[];
+  cases: { marginDB: number; ebN0DB: number; cOverN0DBHz: number; usable: boolean }[];
 }
 
 /** The steps file in an output folder and its format; null when the run wrote none (steps.csv first if both are there). */
@@ -46,7 +46,7 @@ async function* csvRecords(file: string, weather: readonly string[]): AsyncGener
     yield {
       passId: r.pass_id, station: r.station, link: r.link, timeS: Date.parse(r.time_utc) / 1000,
       elevationDeg: num(r.elevation_deg), azimuthDeg: num(r.azimuth_deg), mountLimited: r.mount_limited === 'true',
-      cases: weather.map((w) => ({ marginDB: num(r[`margin_db_${w}`]), ebN0DB: num(r[`eb_over_n0_db_${w}`]), usable: r[`usable_${w}`] === 'true' })),
+      cases: weather.map((w) => ({ marginDB: num(r[`margin_db_${w}`]), ebN0DB: num(r[`eb_over_n0_db_${w}`]), cOverN0DBHz: num(r[`c_over_n0_dbhz_${w}`]), usable: r[`usable_${w}`] === 'true' })),
     };
   }
 }
@@ -62,7 +62,7 @@ async function* parquetRecords(file: string, weather: readonly string[]): AsyncG
   const buffer = await asyncBufferFromFile(file);
   const metadata = await parquetMetadataAsync(buffer);
   const columns = ['pass_id', 'station', 'link', 'time_utc', 'elevation_deg', 'azimuth_deg', 'mount_limited',
-    ...weather.flatMap((w) => [`margin_db_${w}`, `eb_over_n0_db_${w}`, `usable_${w}`])];
+    ...weather.flatMap((w) => [`margin_db_${w}`, `eb_over_n0_db_${w}`, `c_over_n0_dbhz_${w}`, `usable_${w}`])];
   const compressors = { ZSTD: (input: Uint8Array) => zstdDecompress(input) };
   let rowStart = 0;
   for (const g of metadata.row_groups) {
@@ -74,7 +74,7 @@ async function* parquetRecords(file: string, weather: readonly string[]): AsyncG
         passId: r.pass_id as string, station: r.station as string, link: r.link as string,
         timeS: (t instanceof Date ? t.getTime() : Number(t)) / 1000,
         elevationDeg: numOrNaN(r.elevation_deg), azimuthDeg: numOrNaN(r.azimuth_deg), mountLimited: r.mount_limited === true,
-        cases: weather.map((w) => ({ marginDB: numOrNaN(r[`margin_db_${w}`]), ebN0DB: numOrNaN(r[`eb_over_n0_db_${w}`]), usable: r[`usable_${w}`] === true })),
+        cases: weather.map((w) => ({ marginDB: numOrNaN(r[`margin_db_${w}`]), ebN0DB: numOrNaN(r[`eb_over_n0_db_${w}`]), cOverN0DBHz: numOrNaN(r[`c_over_n0_dbhz_${w}`]), usable: r[`usable_${w}`] === true })),
       };
     }
     rowStart = rowEnd;

@@ -40,6 +40,7 @@ import type { SatelliteLayout } from './layout.js';
 import type { PlannedPass } from './plan.js';
 import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
 import { forEachRow, WINDOW_STEPS, type StepPart, type StepWindow } from './window.js';
+import { createWhatIfCollector } from './whatIfCollect.js';
 
 export interface SweepOptions {
   /** Steps in columns, window by window. */
@@ -52,6 +53,8 @@ export interface SweepOptions {
   onPassDone?: (durationS: number) => void;
   /** Filled with where the time goes. */
   timings?: SweepTimings;
+  /** Collect the report's what-if columns (whatIfCollect.ts) into the chunk's `whatIf`. */
+  collectWhatIf?: boolean;
 }
 
 export interface Sweeper {
@@ -85,6 +88,8 @@ interface StationRun {
   pointingOf: number[];
   /** Free column buffers of this station (station columns and one LinkColumns per link). */
   free: Slot[];
+  /** The station's mask is tested on apparent (refracted) elevation. */
+  maskOnApparent: boolean;
 }
 
 /** Column buffers of one pass in one window: station columns, one LinkColumns per link, mask bins, shared spacecraft off-boresight angles. */
@@ -99,6 +104,8 @@ interface ItemRun {
   series: (PassSeriesData | null)[]; // per link
   seriesEvery: number;
   seriesCount: number[];
+  /** Index of the pass in the chunk's `passes`. */
+  passNo: number;
 }
 
 function emptyEnvelope(): Float64Array {
@@ -133,6 +140,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     return {
       name: st.entry.station.name, geometry: createStationGeometry(st.entry.station), rank0, rank1, links,
       byName: layout.linkNames.map((n) => links.findIndex((l) => l.link.name === n)), free: [],
+      maskOnApparent: st.entry.station.maskOnApparentElevation === true,
       pointingOf: links.map((l) => links.findIndex((m) => m.engine.spacecraftPointingKey === l.engine.spacecraftPointingKey)),
     };
   });
@@ -167,6 +175,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       stationSteps: 0, gridTimes: 0, linkSteps: 0, sgp4Calls: 0,
     };
     makeAccumulators();
+    const whatIf = o.collectWhatIf ? createWhatIfCollector() : null;
     for (const st of stations) for (const lr of st.links) lr.envelope = o.collectSeries ? cases.map(() => emptyEnvelope()) : [];
     net.begin();
 
@@ -180,9 +189,11 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const pass = completePass(satOrbit, st.geometry, it.crossing, it.index);
       lap('passSearchS');
       part.passes.push(pass);
+      whatIf?.pass(it.passId);
       const expected = Math.max(1, it.kLast - it.kFirst + 1);
       const run: ItemRun = {
         item: it, pass, st, acc: [], series: [], seriesEvery: Math.max(1, Math.ceil(expected / seriesMax)), seriesCount: st.links.map(() => 0),
+        passNo: part.passes.length - 1,
       };
       const info = {
         passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
@@ -319,6 +330,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
             accumulate(run, l, slot, a, m);
             lap('accumulatorsS');
           }
+          if (whatIf) whatIf.add(run.item.station, run.passNo, a, m, slot.stn, run.st.maskOnApparent, slot.cols, run.st.links.length);
           active.push({ run, slot, k0: a, n: m, station: run.st, cols: slot.cols });
         }
         net.window(active, w0, w1);
@@ -350,6 +362,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     for (const st of net.takeStates()) part.daily.push(st);
     part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
     part.passLinks = passTable.exportState();
+    if (whatIf) part.whatIf = whatIf.take();
     return part;
   }
 

@@ -8,6 +8,7 @@ import { createRateHistogram } from '../analysis/rateHistogram.js';
 import type { DailyRow } from '../analysis/types.js';
 import { PassLinkTable } from '../analysis/passTable.js';
 import type { ResolvedScenario } from '../scenario/types.js';
+import type { Pass } from '../passes/types.js';
 import type { SatelliteLayout } from './layout.js';
 import { ENVELOPE_BINS, type ChunkPartial, type PipelineResult, type StationLinkEnvelope, type StationLinkHistograms } from './types.js';
 
@@ -57,10 +58,21 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
   }
   let next = 0;
   let envelopesKept = false;
+  // What-if columns: the chunks' arrays in order, the pass numbers made satellite-wide.
+  const wiPasses: Pass[] = [];
+  const wiIds: string[] = [];
+  const wiParts: Int32Array[] = [], wiEl: Int32Array[] = [], wiCn0: Int32Array[] = [];
   return {
     add(part) {
       if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
       next++;
+      if (part.whatIf) {
+        const parts = part.whatIf.parts;
+        for (let q = 1; q < parts.length; q += 4) parts[q] += wiPasses.length;
+        for (const p of part.passes) wiPasses.push(p);
+        for (const id of part.whatIf.passIds) wiIds.push(id);
+        wiParts.push(parts); wiEl.push(part.whatIf.elevation); wiCn0.push(part.whatIf.cn0);
+      }
       for (const p of part.passes) result.passes.push(p);
       result.passLinks.append(part.passLinks);
       for (const s of part.series) result.series.push(s);
@@ -82,10 +94,24 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
       result.sgp4Calls += part.sgp4Calls;
     },
     finish() {
+      if (wiParts.length > 0) {
+        (result.whatIf ??= []).push({
+          satIndex: layout.satIndex, satellite: layout.satellite,
+          stations: layout.stations.map((st) => ({ name: st.entry.station.name, stationIndex: st.stationIndex, links: st.links })),
+          passes: wiPasses, passIds: wiIds, parts: concatInt32(wiParts), elevation: concatInt32(wiEl), cn0: concatInt32(wiCn0),
+        });
+      }
       const rows = daily.map((d) => d.rows());
       return { stationDaily: rows.slice(0, nStationDaily).flat(), networkDaily: rows.slice(nStationDaily).flat() };
     },
   };
+}
+
+function concatInt32(list: Int32Array[]): Int32Array {
+  const out = new Int32Array(list.reduce((a, x) => a + x.length, 0));
+  let o = 0;
+  for (const x of list) { out.set(x, o); o += x.length; }
+  return out;
 }
 
 export function emptyPipelineResult(scenario: ResolvedScenario): PipelineResult {

@@ -53,6 +53,8 @@ export interface ParallelPipelineOptions {
   workerScript?: string;
   /** With workers ≤ 1: filled with where the time goes. */
   timings?: SweepTimings;
+  /** Collect the report's what-if columns (PipelineResult.whatIf). */
+  collectWhatIf?: boolean;
 }
 
 /** Young-generation (nursery) size of each worker thread (MB). */
@@ -86,14 +88,14 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
     const result = await runPipeline({
       scenario, collectSeries: o.collectSeries, seriesMaxPoints: o.seriesMaxPoints, seriesMaxSections: o.seriesMaxSections,
       maskFloorDeg: o.maskFloorDeg, onProgress: o.onProgress, onWindow: writer ? (w) => writer.window(w) : undefined,
-      timings: o.timings,
+      timings: o.timings, collectWhatIf: o.collectWhatIf,
     });
     if (writer) await writer.close();
     return result;
   }
 
   const stepsDir = writer ? mkdtempSync(join(tmpdir(), 'passbudget-steps-')) : null;
-  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir, stepsFormat };
+  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir, stepsFormat, collectWhatIf: o.collectWhatIf === true };
   const script = o.workerScript ?? defaultWorkerScript();
   const pool: Worker[] = [];
   try {

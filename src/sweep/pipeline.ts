@@ -40,6 +40,7 @@ export async function runPipeline(options: PipelineOptions): Promise<PipelineRes
       collectSeries: options.collectSeries,
       seriesMaxPoints: options.seriesMaxPoints,
       timings: options.timings,
+      collectWhatIf: options.collectWhatIf,
       onPassDone: (d) => { doneS += d; options.onProgress?.(doneS, plan.totalS); },
     };
     for (let c = 0; c + 1 < plan.chunkStarts.length; c++) {

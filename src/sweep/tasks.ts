@@ -23,6 +23,7 @@ export interface WorkerInit {
   maskFloorDeg?: number;
   collectSeries: boolean;
   seriesMaxPoints?: number;
+  collectWhatIf?: boolean;
   /** Folder for the chunks' steps rows; null when no steps file is written. */
   stepsDir: string | null;
   stepsFormat: StepsFormat;
@@ -51,6 +52,7 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   for (const e of p.envelope) add(e);
   const t = p.passLinks;
   for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts]) out.add(a.buffer as ArrayBuffer);
+  if (p.whatIf) for (const a of [p.whatIf.parts, p.whatIf.elevation, p.whatIf.cn0]) out.add(a.buffer as ArrayBuffer);
   return [...out];
 }
 
@@ -111,6 +113,7 @@ export function createTaskRunner(init: WorkerInit, post: (m: FromWorker, transfe
     const partial = await sweeperFor(msg.satIndex).sweepChunk(msg.items, msg.chunk, {
       collectSeries: init.collectSeries,
       seriesMaxPoints: init.seriesMaxPoints,
+      collectWhatIf: init.collectWhatIf,
       onWindow: target ? (w) => target.window(w) : undefined,
       onPassDone: (d) => {
         doneS += d;

@@ -12,6 +12,7 @@ import type { DailyRow, PassSeries } from '../analysis/types.js';
 import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { StepWindow } from './window.js';
+import type { WhatIfChunkData } from './whatIfCollect.js';
 
 /** One evaluated step as a record (the slow path, for checks and custom sinks); the objects are reused: copy what you keep. */
 export interface StepEvent {
@@ -46,6 +47,8 @@ export interface PipelineOptions {
   onProgress?: (doneS: number, totalS: number) => void;
   /** Filled with where the time goes (this thread's work). */
   timings?: SweepTimings;
+  /** Collect the report's what-if columns into `whatIf` (whatIfCollect.ts). */
+  collectWhatIf?: boolean;
 }
 
 /**
@@ -116,6 +119,21 @@ export interface PipelineResult {
   /** SGP4 evaluations made by the sweep (nodes when interpolating), all satellites and threads. */
   sgp4Calls: number;
   engines: LinkEngine[];
+  /** With PipelineOptions.collectWhatIf: per satellite, the report's what-if columns in run order. */
+  whatIf?: WhatIfSatellite[];
+}
+
+/** A satellite's what-if columns (whatIfCollect.ts), its chunks in order; `parts` index `passes`. */
+export interface WhatIfSatellite {
+  satIndex: number;
+  satellite: string;
+  /** Layout stations: name, index in scenario.stations, links (in the order of the columns). */
+  stations: { name: string; stationIndex: number; links: LinkSpec[] }[];
+  passes: Pass[];
+  passIds: string[];
+  parts: Int32Array;
+  elevation: Int32Array;
+  cn0: Int32Array;
 }
 
 /** What one chunk hands back: plain data and typed arrays (crosses a worker boundary). */
@@ -137,6 +155,8 @@ export interface ChunkPartial {
   gridTimes: number;
   linkSteps: number;
   sgp4Calls: number;
+  /** With SweepOptions.collectWhatIf: the report's what-if columns of the chunk. */
+  whatIf?: WhatIfChunkData;
 }
 
 export const ENVELOPE_BIN_DEG = 2;

@@ -10,6 +10,7 @@ import { header } from './header.js';
 import { linkSection } from './linkSection.js';
 import { pageShell } from './page.js';
 import { passTable } from './passTable.js';
+import { whatIfSection } from './whatIfPanel.js';
 import { skyBackgroundSymbol } from './skyPlot.js';
 import type { EnvelopeSeries } from './envelope.js';
 import type { PassSeries, ReportInput } from './types.js';
@@ -64,12 +65,13 @@ export function renderReport(input: ReportInput): string {
   const links = [...s.links, ...new Set(passes.map((p) => p.link).filter((l) => !s.links.includes(l)))];
   const weatherCases = s.weatherCases.length > 0 ? s.weatherCases : [...new Set(passes.flatMap((p) => p.cases.map((c) => c.weather)))];
 
-  const nav = `<nav class="small">Jump to: <a href="#glance">at a glance</a> · ${links.map((l, i) => `<a href="#link-${i}">${h(l)}</a>`).join(' · ')} · <a href="#pass-table">all passes</a></nav>`;
+  const nav = `<nav class="small">Jump to: <a href="#glance">at a glance</a> · <a href="#whatif">what if</a> · ${links.map((l, i) => `<a href="#link-${i}">${h(l)}</a>`).join(' · ')} · <a href="#pass-table">all passes</a></nav>`;
   const body = [
     defs,
     header(s, title, input.generatedNote),
     nav,
     glance(glanceRows(s, passes, input.daily), links, input.requiredMarginDB),
+    whatIfSection(input.whatIf, maxSections),
     ...links.map((link, i) => linkSection({
       link,
       stations: s.stations,

@@ -48,5 +48,6 @@ export function passDetail(
   }
   const summaryLine = `<strong>${h(p.passId)}</strong> · ${h(p.link)} · ${h(formatUtc(p.aosS))} UTC · peak ${formatFixed(p.maxElevationDeg, 1)}°`
     + (first ? ` · ${h(first.weather)}: <span class="verdict-${h(first.verdict)}">${h(first.verdict)}</span>, ${formatFixed(first.usableDurationS / 60, 1)} min, ${h(formatBits(caseVolumeBits(first)))}` : '');
-  return `<details class="pass" id="${passAnchor(index)}"><summary>${summaryLine}</summary>${figures}${charts}</details>`;
+  // data-pass/data-link and the empty span: where the what-if panel writes this pass's changed verdict and volume.
+  return `<details class="pass" id="${passAnchor(index)}" data-pass="${h(p.passId)}" data-link="${h(p.link)}"><summary>${summaryLine}<span class="whatif-pass"></span></summary>${figures}${charts}</details>`;
 }

@@ -8,6 +8,7 @@ import type {
 } from '../../analysis/types.js';
 
 export type { PassSeries } from '../../analysis/types.js';
+import type { WhatIfPayload } from '../../analysis/whatIf.js';
 
 /** Lowest/highest margin per elevation bin (bin centre in deg) for one link and weather case. */
 export interface LinkEnvelope {
@@ -45,4 +46,6 @@ export interface ReportInput {
   maxChartPoints?: number;
   /** Report title (default: the scenario name). */
   title?: string;
+  /** The what-if panel's data, or why the page has none (a sentence shown in its place). */
+  whatIf?: WhatIfPayload | { missing: string };
 }

@@ -1,0 +1,366 @@
+/**
+ * The what-if recomputation: a run's per-step C/N0 and mask elevation (as the
+ * sweep collected them, sweep/whatIfCollect.ts) with a link's EIRP, G/T, rate,
+ * required margin or elevation mask changed, through the run's own rules:
+ * the per-step rule (budget/caseRule.ts: usable test, adaptive mode choice
+ * with the same mode table), the pass summary and verdict
+ * (passAccumulator.ts, verdict.ts), the daily aggregate (dailyAccumulator.ts)
+ * and the network arbitration (sweep/network.ts). Browser-clean: the report
+ * page bundles this module (esbuild, at build time) and runs it on the data
+ * the page carries.
+ *
+ * Exact apart from the quantisation of the carried columns (C/N0 to
+ * 0.001 dB, elevation to 0.01°), with one approximation for a raised mask:
+ * a pass's new AOS/LOS (the verdict's time above the mask) are interpolated
+ * linearly in elevation between the grid steps either side of the new mask,
+ * where the run root-finds them.
+ */
+import { applyCaseRule, createCaseRule } from '../budget/caseRule.js';
+import type { LinkColumns } from '../budget/linkColumns.js';
+import type { LinkSpec, ModCodSpec } from '../budget/types.js';
+import type { NetworkPolicy } from '../scenario/types.js';
+import { createNetworkFeed, type InView } from '../sweep/network.js';
+import { WINDOW_STEPS } from '../sweep/window.js';
+import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from './dailyAccumulator.js';
+import { createPassAccumulator } from './passAccumulator.js';
+import type { DailyRow, PassLinkSummary } from './types.js';
+
+/** What the page carries of a link: what the rules read. */
+export type WhatIfLinkSpec = Pick<LinkSpec, 'name' | 'direction' | 'station' | 'satellite' | 'modcod' | 'requiredMarginDB' | 'implementationLossDB'>;
+
+export interface WhatIfPassInfo {
+  passId: string;
+  /** Index into the satellite's `stations`. */
+  station: number;
+  aosS: number;
+  losS: number;
+  tcaS: number;
+  durationS: number;
+  maxElevationDeg: number;
+  clippedStart: boolean;
+  clippedEnd: boolean;
+}
+
+export interface WhatIfSatelliteData {
+  satellite: string;
+  linkNames: string[];
+  stations: { name: string; rank0: number; rank1: number; links: WhatIfLinkSpec[] }[];
+  passes: WhatIfPassInfo[];
+  /** Per part: station, pass, first grid index, steps (4 integers each). */
+  parts: Int32Array;
+  /** Mask elevation per part step (units of `elevationQuantumDeg`). */
+  elevation: Int32Array;
+  /** Per part, per station link, per case, per step: C/N0 (units of `cn0QuantumDB`). */
+  cn0: Int32Array;
+}
+
+export interface WhatIfData {
+  startS: number;
+  endS: number;
+  stepS: number;
+  weather: string[];
+  policy: NetworkPolicy;
+  elevationQuantumDeg: number;
+  cn0QuantumDB: number;
+  satellites: WhatIfSatelliteData[];
+}
+
+/** The changes to one link (absent fields: as in the run). */
+export interface WhatIfChange {
+  link: string;
+  eirp_delta_db?: number;
+  gt_delta_db?: number;
+  /** Fixed-rate links. */
+  bit_rate_bps?: number;
+  /** Adaptive links. */
+  symbol_rate_baud?: number;
+  required_margin_db?: number;
+  /** Every station's mask raised to at least this (deg): max(mask(azimuth), mask_deg). */
+  mask_deg?: number;
+}
+
+export interface WhatIfDaily { days_utc: string[]; daily_volume_bits: number[]; usable_passes: number }
+
+export interface WhatIfResult {
+  cases: Record<string, { network: WhatIfDaily; stations: Record<string, WhatIfDaily> }>;
+}
+
+/** The hook's result and what the panel draws: daily rows and the pass summaries of the link. */
+export interface WhatIfDetail {
+  result: WhatIfResult;
+  /** Per case: station and network daily rows (network rows have station NETWORK_STATION). */
+  daily: DailyRow[];
+  passes: PassLinkSummary[];
+}
+
+/** The link spec with the change applied (rate, required margin). */
+export function changedLink(l: WhatIfLinkSpec, c: WhatIfChange): LinkSpec {
+  let modcod: ModCodSpec = l.modcod;
+  if (modcod.kind === 'fixed' && c.bit_rate_bps !== undefined) modcod = { ...modcod, bitRateBps: c.bit_rate_bps };
+  if (modcod.kind === 'adaptive' && c.symbol_rate_baud !== undefined) modcod = { ...modcod, symbolRateBaud: c.symbol_rate_baud };
+  return { ...l, modcod, requiredMarginDB: c.required_margin_db ?? l.requiredMarginDB } as LinkSpec;
+}
+
+/** Check a change: one line per problem (WHERE: what is wrong (what is allowed)). */
+export function checkWhatIfChange(data: WhatIfData, c: WhatIfChange): string | null {
+  const links = new Set(data.satellites.flatMap((s) => s.linkNames));
+  if (!links.has(c.link)) return `link: "${c.link}" is not a link of this run (allowed ${[...links].join(', ')})`;
+  const fin = (k: keyof WhatIfChange, lo: number, hi: number) => {
+    const v = c[k];
+    if (v === undefined) return null;
+    return typeof v === 'number' && Number.isFinite(v) && v >= lo && v <= hi ? null : `${k}: ${String(v)} is out of range (allowed ${lo} to ${hi})`;
+  };
+  return fin('eirp_delta_db', -60, 60) ?? fin('gt_delta_db', -60, 60) ?? fin('bit_rate_bps', 1e-3, 1e12) ?? fin('symbol_rate_baud', 1e-3, 1e12)
+    ?? fin('required_margin_db', -60, 60) ?? fin('mask_deg', -5, 89);
+}
+
+interface Sub {
+  pass: WhatIfPassInfo;
+  station: number;
+  /** Grid index of the first step and step count. */
+  k0: number;
+  n: number;
+  aosS: number;
+  losS: number;
+  durationS: number;
+  /** The link's case columns over the steps (null when the station has no such link). */
+  cols: LinkColumns | null;
+  linkSpec: LinkSpec | null;
+}
+
+function caseColumns(n: number) {
+  const f = () => new Float64Array(n);
+  return { cOverN0DBHz: f(), esN0DB: f(), ebN0DB: f(), requiredEbN0DB: f(), marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f() };
+}
+type Cases = ReturnType<typeof caseColumns>;
+
+function view(cols: LinkColumns, from: number): LinkColumns {
+  return { ...cols, cases: cols.cases.map((c) => {
+    const x = c as unknown as Cases;
+    return { ...c, marginDB: x.marginDB.subarray(from), usable: x.usable.subarray(from), informationRateBps: x.informationRateBps.subarray(from), esN0DB: x.esN0DB.subarray(from) };
+  }) } as LinkColumns;
+}
+
+/** Recompute one link with a change. */
+export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDetail {
+  const problem = checkWhatIfChange(data, change);
+  if (problem) throw new Error(`passbudgetWhatIf: ${problem}`);
+  const { startS, endS, stepS, weather } = data;
+  const nCases = weather.length;
+  const dEirp = change.eirp_delta_db ?? 0, dGt = change.gt_delta_db ?? 0;
+  const qEl = data.elevationQuantumDeg, qC = data.cn0QuantumDB;
+  const floor = change.mask_deg;
+  const daily: DailyRow[] = [];
+  const passes: PassLinkSummary[] = [];
+  const stationAcc = new Map<string, DailyAccumulator[]>();
+  const networkAcc: DailyAccumulator[][] = [];
+
+  for (const sat of data.satellites) {
+    if (!sat.linkNames.includes(change.link)) continue;
+    const linkIndex = sat.stations.map((st) => st.links.findIndex((l) => l.name === change.link));
+    const specs = sat.stations.map((st, s) => (linkIndex[s] >= 0 ? changedLink(st.links[linkIndex[s]], change) : null));
+    const rules = specs.map((l) => (l ? createCaseRule(l) : null));
+    // Each pass's parts, in order; the pass's steps are contiguous grid times.
+    const partsOf: number[][] = sat.passes.map(() => []);
+    const elOff: number[] = [], cnOff: number[] = [];
+    let eo = 0, co = 0;
+    for (let p = 0; p * 4 < sat.parts.length; p++) {
+      const st = sat.parts[4 * p], pass = sat.parts[4 * p + 1], n = sat.parts[4 * p + 3];
+      partsOf[pass].push(p);
+      elOff.push(eo); cnOff.push(co);
+      eo += n; co += n * sat.stations[st].links.length * nCases;
+    }
+    const subs: Sub[] = [];
+    sat.passes.forEach((pass, pi) => {
+      const ps = partsOf[pi];
+      if (ps.length === 0) return;
+      const s = pass.station;
+      const k0 = sat.parts[4 * ps[0] + 2];
+      let n = 0;
+      for (const p of ps) n += sat.parts[4 * p + 3];
+      const el = new Float64Array(n);
+      const cols = linkIndex[s] >= 0 ? Array.from({ length: nCases }, () => caseColumns(n)) : null;
+      let o = 0;
+      const nl = sat.stations[s].links.length;
+      for (const p of ps) {
+        const m = sat.parts[4 * p + 3];
+        for (let i = 0; i < m; i++) el[o + i] = sat.elevation[elOff[p] + i] * qEl;
+        if (cols) {
+          for (let ci = 0; ci < nCases; ci++) {
+            const src = cnOff[p] + (linkIndex[s] * nCases + ci) * m;
+            const dst = cols[ci].cOverN0DBHz;
+            for (let i = 0; i < m; i++) dst[o + i] = sat.cn0[src + i] * qC + dEirp + dGt;
+          }
+        }
+        o += m;
+      }
+      if (cols) for (const c of cols) applyCaseRule(rules[s]!, c, n, false);
+      // The pass's runs of steps at or above the raised mask (the whole pass when the mask is unchanged).
+      let a = 0;
+      while (a < n) {
+        if (floor !== undefined && !(el[a] >= floor)) { a++; continue; }
+        let b = a + 1;
+        while (b < n && (floor === undefined || el[b] >= floor)) b++;
+        const cross = (i: number, j: number) => startS + (k0 + i) * stepS + ((floor! - el[i]) / (el[j] - el[i])) * stepS;
+        const aosS = a === 0 ? pass.aosS : cross(a - 1, a);
+        const losS = b === n ? pass.losS : cross(b - 1, b);
+        const whole = a === 0 && b === n;
+        let sc: LinkColumns | null = null;
+        if (cols) {
+          sc = { n: b - a, cases: cols.map((c) => ({
+            marginDB: c.marginDB.subarray(a, b), usable: c.usable.subarray(a, b), informationRateBps: c.informationRateBps.subarray(a, b), esN0DB: c.esN0DB.subarray(a, b),
+          })) } as unknown as LinkColumns;
+        }
+        subs.push({ pass, station: s, k0: k0 + a, n: b - a, aosS, losS, durationS: whole ? pass.durationS : losS - aosS, cols: sc, linkSpec: specs[s] });
+        a = b;
+      }
+    });
+    // Station by station: pass summaries and the daily aggregate (the run's accumulators).
+    const accOf = sat.stations.map((st, s) => {
+      if (!specs[s]) return null;
+      const key = st.name;
+      let acc = stationAcc.get(key);
+      if (!acc) {
+        acc = weather.map((w) => createDailyAccumulator({ startS, endS, link: specs[s]!, weather: w }));
+        stationAcc.set(key, acc);
+      }
+      return acc;
+    });
+    const bySt = [...subs].sort((x, y) => x.station - y.station || x.k0 - y.k0);
+    for (const sub of bySt) {
+      if (!sub.cols || !sub.linkSpec) continue;
+      const st = sat.stations[sub.station];
+      const acc = createPassAccumulator({
+        link: sub.linkSpec, weatherCases: weather,
+        pass: {
+          passId: sub.pass.passId, satellite: sat.satellite, station: st.name, aosS: sub.aosS, tcaS: sub.pass.tcaS, losS: sub.losS,
+          maxElevationDeg: sub.pass.maxElevationDeg, durationS: sub.durationS,
+          clippedStart: sub.pass.clippedStart && sub.aosS === sub.pass.aosS, clippedEnd: sub.pass.clippedEnd && sub.losS === sub.pass.losS,
+        },
+      });
+      acc.addColumns(sub.cols, 0, sub.n, startS, sub.k0, stepS);
+      const summary = acc.finish();
+      passes.push(summary);
+      const daysAcc = accOf[sub.station]!;
+      summary.cases.forEach((c, ci) => {
+        const cc = sub.cols!.cases[ci];
+        daysAcc[ci].addColumns(startS, sub.k0, stepS, 0, sub.n, cc.usable, cc.informationRateBps, cc.esN0DB);
+        daysAcc[ci].endPass(sub.aosS, c.verdict);
+      });
+    }
+    // The network: groups of passes overlapping in grid time (every station's), windows of WINDOW_STEPS, the run's feed.
+    const proto = specs.find((l) => l !== null)!;
+    const feed = createNetworkFeed({ startS, endS, stepS, cases: weather.map((name) => ({ name })) as never, linkNames: [change.link], protoLinks: [proto], satellite: sat.satellite, policy: data.policy });
+    feed.begin();
+    // The run's order (the plan's: AOS, then station name) is the data's pass order; a raised mask moves AOS, so sort again.
+    const order = floor === undefined ? subs
+      : [...subs].sort((x, y) => x.aosS - y.aosS || sat.stations[x.station].name.localeCompare(sat.stations[y.station].name));
+    const stationsIV = sat.stations.map((st, s) => ({ byName: [specs[s] ? 0 : -1], rank0: st.rank0, rank1: st.rank1, links: [{ link: specs[s] ?? proto }] }));
+    let i = 0;
+    while (i < order.length) {
+      let maxLast = order[i].k0 + order[i].n - 1;
+      let j = i + 1;
+      while (j < order.length && order[j].k0 <= maxLast) { maxLast = Math.max(maxLast, order[j].k0 + order[j].n - 1); j++; }
+      const group = order.slice(i, j);
+      for (let w0 = order[i].k0; w0 <= maxLast; w0 += WINDOW_STEPS) {
+        const w1 = Math.min(w0 + WINDOW_STEPS, maxLast + 1);
+        const active: InView[] = [];
+        for (const g of group) {
+          const gLast = g.k0 + g.n - 1;
+          if (g.k0 >= w1 || gLast < w0) continue;
+          const a = Math.max(g.k0, w0), b = Math.min(gLast + 1, w1);
+          active.push({ k0: a, n: b - a, station: stationsIV[g.station], cols: g.cols ? [view(g.cols, a - g.k0)] : [] });
+        }
+        feed.window(active, w0, w1);
+      }
+      feed.closeContact();
+      i = j;
+    }
+    const states = feed.takeStates();
+    networkAcc.push(states.map((stt, ci) => {
+      const acc = createDailyAccumulator({ startS, endS, link: proto, weather: weather[ci], station: NETWORK_STATION, satellite: sat.satellite });
+      acc.mergeState(stt);
+      return acc;
+    }));
+  }
+
+  const pack = (rows: DailyRow[]): WhatIfDaily => ({
+    days_utc: rows.map((r) => r.dayUtc),
+    daily_volume_bits: rows.map((r) => r.adaptiveVolumeBits ?? r.fixedVolumeBits),
+    usable_passes: rows.reduce((a, r) => a + r.usablePasses, 0),
+  });
+  const sumRows = (lists: DailyRow[][]): DailyRow[] => lists[0].map((r, d) => lists.slice(1).reduce((x, l) => ({
+    ...x, passes: x.passes + l[d].passes, usablePasses: x.usablePasses + l[d].usablePasses, usableMinutes: x.usableMinutes + l[d].usableMinutes,
+    fixedVolumeBits: x.fixedVolumeBits + l[d].fixedVolumeBits,
+    adaptiveVolumeBits: x.adaptiveVolumeBits === null ? null : x.adaptiveVolumeBits + (l[d].adaptiveVolumeBits ?? 0),
+  }), r));
+  const result: WhatIfResult = { cases: {} };
+  weather.forEach((w, ci) => {
+    const net = sumRows(networkAcc.map((a) => a[ci].rows()));
+    const stations: Record<string, WhatIfDaily> = {};
+    for (const [name, acc] of stationAcc) {
+      const rows = acc[ci].rows();
+      stations[name] = pack(rows);
+      for (const r of rows) daily.push(r);
+    }
+    for (const r of net) daily.push(r);
+    result.cases[w] = { network: pack(net), stations };
+  });
+  passes.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station));
+  return { result, daily, passes };
+}
+
+/** The hook: the daily volumes and usable passes with the change applied. */
+export function whatIf(data: WhatIfData, change: WhatIfChange): WhatIfResult {
+  return whatIfDetail(data, change).result;
+}
+
+// ---- The page's compact form: integer columns as zigzag LEB128 varints of successive differences, base64. ----
+
+/** Integers → base64 of the varint-coded differences (each value minus the one before, the first minus 0). */
+export function encodeIntColumn(a: Int32Array, toBase64: (bytes: Uint8Array) => string): string {
+  const out = new Uint8Array(a.length * 5 + 8);
+  let o = 0, prev = 0;
+  for (let i = 0; i < a.length; i++) {
+    const d = a[i] - prev;
+    prev = a[i];
+    let z = d >= 0 ? 2 * d : -2 * d - 1;
+    while (z >= 128) { out[o++] = (z % 128) | 128; z = Math.floor(z / 128); }
+    out[o++] = z;
+  }
+  return toBase64(out.subarray(0, o));
+}
+
+/** The inverse of encodeIntColumn (n values). */
+export function decodeIntColumn(text: string, n: number, fromBase64: (s: string) => Uint8Array): Int32Array {
+  const bytes = fromBase64(text);
+  const out = new Int32Array(n);
+  let o = 0, prev = 0, i = 0;
+  while (o < n) {
+    let z = 0, mul = 1, b: number;
+    do { b = bytes[i++]; z += (b & 127) * mul; mul *= 128; } while (b & 128);
+    const d = z % 2 === 0 ? z / 2 : -(z + 1) / 2;
+    prev += d;
+    out[o++] = prev;
+  }
+  return out;
+}
+
+/** The page's JSON form of WhatIfData: the integer columns as encodeIntColumn text with their lengths. */
+export interface WhatIfPayload extends Omit<WhatIfData, 'satellites'> {
+  satellites: (Omit<WhatIfSatelliteData, 'parts' | 'elevation' | 'cn0'> & {
+    parts: string; nParts: number; elevation: string; nElevation: number; cn0: string; nCn0: number;
+  })[];
+}
+
+export function decodeWhatIfPayload(p: WhatIfPayload, fromBase64: (s: string) => Uint8Array): WhatIfData {
+  return {
+    ...p,
+    satellites: p.satellites.map((s) => ({
+      ...s,
+      parts: decodeIntColumn(s.parts, s.nParts, fromBase64),
+      elevation: decodeIntColumn(s.elevation, s.nElevation, fromBase64),
+      cn0: decodeIntColumn(s.cn0, s.nCn0, fromBase64),
+    })),
+  };
+}
