@@ -44,6 +44,7 @@ import { azElSeparationDeg, lineOfSightTeme, spacecraftOffBoresightColumn, unitV
 import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from './linkColumns.js';
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
+import { buildWeatherTable, weatherColumns, weatherLevels } from './weather.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
 
 export interface LinkEngineOptions {
@@ -134,6 +135,7 @@ export function createStepBudget(weatherCases: readonly WeatherCase[]): StepBudg
     time_s: NaN, range_km: NaN, elevation_deg: NaN, azimuth_deg: NaN, tx_off_boresight_deg: NaN, rx_off_boresight_deg: NaN,
     eirp_dbw: NaN, free_space_loss_db: NaN, polarisation_loss_db: NaN, tx_pointing_loss_db: NaN, rx_pointing_loss_db: NaN,
     other_losses_db: NaN, mount_lag_deg: 0, mount_limited: false, doppler_hz: NaN, doppler_rate_hz_s: NaN,
+    closing_probability: NaN, expected_information_rate_mbps: NaN, closing_probability_clamped: false,
     cases: weatherCases.map((w) => createCaseBudget(w.name)),
   };
 }
@@ -179,6 +181,9 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   }
   const table = options.table ?? buildElevationTable(ctx, options.tableToleranceDB);
   const nTerms = weatherCases.length * TERM_COUNT;
+  // Weather as a probability: its table on the elevation table's nodes, built once with it (and shipped with it).
+  if (weatherCases.length > 0) table.weather ??= buildWeatherTable(ctx, table);
+  const weather = table.weather ?? null;
 
   // Constant per link.
   const txPowerDBW = txEnd.txPowerDBW as number;
@@ -251,6 +256,11 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     spacecraftOffBoresightDeg: NaN, groundOffBoresightDeg: NaN,
   };
   const modeTable = mc.kind === 'adaptive' ? adaptiveModeTable(modes, reqMargin) : null;
+  // Closing levels for the weather probability: the required margin on the margin column (fixed), or each
+  // distinct mode threshold on the effective Es/N0 (adaptive), worth the rate it adds (Mb/s).
+  const levels = modeTable
+    ? weatherLevels(modeTable.thresholdsDB, Array.from(modeTable.modeFrom, (m) => (symbolRate * modes[m].efficiencyBitsPerSymbol) / 1e6))
+    : weatherLevels([reqMargin], [bitRate / 1e6]);
   const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
   const modeNames = modes.map((m) => m.name);
   const modeReq = Float64Array.from(modes, (m) => m.requiredEsN0DB);
@@ -258,12 +268,12 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
   // Scratch columns, grown on demand (held in one object so the loops below take them as locals).
-  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0) };
+  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0), x: new Float64Array(0) };
   function scratch(n: number): void {
     if (n <= sc.cap) return;
     const cap = Math.max(n, 2 * sc.cap);
     sc.cap = cap;
-    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap);
+    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap); sc.x = new Float64Array(cap);
   }
 
   /** Spacecraft antenna gain at the off-boresight angle and the pointing loss of the attitude error (≥ 0). */
@@ -412,6 +422,18 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
         tableTermPairColumn(table, o + TERM.antennaTemperatureK, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK, c.systemTemperatureK);
       }
       caseTerms(c, n, sc.base, out.rxGainDBi, full);
+    }
+    if (weather) {
+      const c0 = out.cases[0];
+      let x = c0.marginDB;
+      if (modeTable) {
+        x = sc.x;
+        const es = c0.esN0DB, im = impl * 1;
+        for (let i = 0; i < n; i++) x[i] = es[i] - im;
+      }
+      weatherColumns(weather, levels, n, lo, hiOff, frac, x, out.closingProbability, out.expectedInformationRateMbps, out.closingClamped);
+    } else {
+      out.closingProbability.fill(NaN, 0, n); out.expectedInformationRateMbps.fill(NaN, 0, n); out.closingClamped.fill(0, 0, n);
     }
     return out;
   }

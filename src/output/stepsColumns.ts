@@ -12,6 +12,7 @@ import { fmt, type CsvCell } from './csv.js';
 /** Decimals per numeric column (by unit suffix), so files stay readable and deterministic. */
 export function decimalsFor(column: string): number {
   if (column.endsWith('_bps')) return 0;
+  if (column === 'closing_probability' || column.endsWith('_mbps')) return 6;
   if (column === 'doppler_hz') return 1;
   if (column.endsWith('_hz_s')) return 2;
   if (column.endsWith('_k')) return 2;
