@@ -58,6 +58,8 @@ export interface LinkEngineOptions {
    * (e.g. built in another thread and structured-cloned); skips building one.
    */
   table?: ElevationTable;
+  /** Weather as a probability (weather.ts; default true): false leaves its step columns NaN and builds no table. */
+  weatherProbability?: boolean;
 }
 
 /** Intermediate values of the last evaluated step (for explain; overwritten each step). */
@@ -182,8 +184,9 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const table = options.table ?? buildElevationTable(ctx, options.tableToleranceDB);
   const nTerms = weatherCases.length * TERM_COUNT;
   // Weather as a probability: its table on the elevation table's nodes, built once with it (and shipped with it).
-  if (weatherCases.length > 0) table.weather ??= buildWeatherTable(ctx, table);
-  const weather = table.weather ?? null;
+  const wantWeather = options.weatherProbability !== false && weatherCases.length > 0;
+  if (wantWeather) table.weather ??= buildWeatherTable(ctx, table);
+  const weather = wantWeather ? table.weather ?? null : null;
 
   // Constant per link.
   const txPowerDBW = txEnd.txPowerDBW as number;

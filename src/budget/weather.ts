@@ -48,6 +48,10 @@ export interface WeatherTable {
   pPercent: Float64Array;
   /** ln of pPercent. */
   lnP: Float64Array;
+  /** ln(p_{g+1} / p_g) per grid interval (at most ln 10 / 16 = 0.144: exp of it by a 5th-order series, error < 2e-8 relative). */
+  lnStep: Float64Array;
+  /** (p_{g+1} − p_g) / E(lnStep_g), E(u) = the series of exp(u) − 1 the search uses. */
+  expScale: Float64Array;
   /** Numbers per node: 1 (clear sky) + grid points. */
   width: number;
   /** Node-major: [D_clear, D(p_0), …, D(p_{G−1})] per elevation node of the link's table (dB). */
@@ -104,7 +108,20 @@ export function buildWeatherTable(ctx: AtmosphereContext, table: ElevationTable)
     // Non-increasing in p: running maximum from 5 % down.
     for (let g = G - 1; g >= 1; g--) if (values[row + g] < values[row + g + 1]) values[row + g] = values[row + g + 1];
   }
-  return { pPercent: grid, lnP: grid.map(Math.log), width, values, tableTermsPerNode: nt };
+  return weatherTableOf(grid, values, nt);
+}
+
+/** A weather table from its p grid and node rows (as buildWeatherTable lays them out). */
+export function weatherTableOf(grid: Float64Array, values: Float64Array, tableTermsPerNode: number): WeatherTable {
+  const lnP = grid.map(Math.log);
+  const lnStep = new Float64Array(grid.length);
+  const expScale = new Float64Array(grid.length);
+  for (let g = 0; g + 1 < grid.length; g++) {
+    const u = (lnStep[g] = lnP[g + 1] - lnP[g]);
+    const e = u * (1 + u * (0.5 + u * (1 / 6 + u * (1 / 24 + u / 120))));
+    expScale[g] = e > 0 ? (grid[g + 1] - grid[g]) / e : 0;
+  }
+  return { pPercent: grid, lnP, lnStep, expScale, width: grid.length + 1, values, tableTermsPerNode };
 }
 
 /**
@@ -117,7 +134,12 @@ export interface WeatherLevels {
   thresholdDB: Float64Array;
   /** Rate added by the level (any unit; the expected rate comes out in it). */
   rateStep: Float64Array;
-  /** Hunt index per level, carried from step to step. */
+  /** cumRate[k] = Σ rateStep[0 … k−1]. */
+  cumRate: Float64Array;
+  /**
+   * Hunt state carried from step to step: [0] the number of levels that close even at 0.001 %,
+   * [1] the grid interval of the first level inside the model's range.
+   */
   hunt: Int32Array;
 }
 
@@ -130,7 +152,9 @@ export function weatherLevels(thresholdDB: ArrayLike<number>, rate: ArrayLike<nu
     th.push(thresholdDB[j]); dr.push(Math.max(0, gain));
     best = Math.max(best, rate[j]);
   }
-  return { thresholdDB: Float64Array.from(th), rateStep: Float64Array.from(dr), hunt: new Int32Array(th.length) };
+  const cumRate = new Float64Array(th.length + 1);
+  for (let j = 0; j < th.length; j++) cumRate[j + 1] = cumRate[j] + dr[j];
+  return { thresholdDB: Float64Array.from(th), rateStep: Float64Array.from(dr), cumRate, hunt: new Int32Array(2) };
 }
 
 /** Closing probability given to a step that closes even at 0.001 % (a lower bound). */
@@ -144,41 +168,72 @@ export const CLOSING_PROBABILITY_AT_P_MAX = 1 - WEATHER_P_MAX_PERCENT / 100;
  * probability of the lowest level, the expected information rate Σ over
  * levels of (rate step × its closing probability), and the clamp flag of the
  * lowest level. A column loop: no allocation, no model call.
+ *
+ * Level j's excess is y_j = x − threshold_j, falling with j. The levels with
+ * y_j ≥ D(0.001 %) (the first kTop) count at once through cumRate, kTop
+ * hunted from the previous step; the next levels, down to the first that
+ * fails in clear sky, walk the row forwards from the previous step's grid
+ * interval (their p* rise with j), so a step costs O(levels inside the
+ * model's range + intervals moved), not a search per level.
  */
 export function weatherColumns(
   wt: WeatherTable, lv: WeatherLevels, n: number, lo: Int32Array, hiOff: Int32Array, frac: Float64Array, x: Float64Array,
   prob: Float64Array, rate: Float64Array, clamped: Uint8Array,
 ): void {
-  const v = wt.values, L = wt.lnP, W = wt.width | 0, G = (W - 1) | 0, nt = wt.tableTermsPerNode | 0;
-  const th = lv.thresholdDB, dr = lv.rateStep, hunt = lv.hunt, nl = th.length;
+  const v = wt.values, pg = wt.pPercent, dl = wt.lnStep, es = wt.expScale, W = wt.width | 0, G = (W - 1) | 0, nt = wt.tableTermsPerNode | 0;
+  const th = lv.thresholdDB, dr = lv.rateStep, cum = lv.cumRate, hunt = lv.hunt, nl = th.length | 0;
   const qTop = CLOSING_PROBABILITY_MAX * 1, qBottom = CLOSING_PROBABILITY_AT_P_MAX * 1;
+  let kTop = hunt[0] | 0, g0 = hunt[1] | 0;
+  if (kTop > nl) kTop = nl;
+  if (g0 > G - 2) g0 = G - 2;
+  if (g0 < 0) g0 = 0;
   for (let i = 0; i < n; i++) {
     const a = ((lo[i] / nt) | 0) * W, b = ((hiOff[i] / nt) | 0) * W, f = frac[i];
     const rc = v[a] + f * (v[b] - v[a]);
     const top = v[a + 1] + f * (v[b + 1] - v[a + 1]);
     const bot = v[a + G] + f * (v[b + G] - v[a + G]);
     const xi = x[i];
-    let expected = 0, p0 = 0, c0 = 0;
-    for (let j = 0; j < nl; j++) {
-      const y = xi - th[j];
-      // Fails in clear sky (or NaN): this level and every higher one close with probability 0.
-      if (!(y >= rc)) break;
-      let q: number, c = 0;
-      if (y >= top) { q = qTop; c = 1; } else if (y < bot) { q = qBottom; c = 1; } else {
-        // D(p_g) > y ≥ D(p_{g+1}); D at grid point g is at offset 1 + g of a row.
-        let g = hunt[j];
-        if (g > G - 2) g = G - 2;
-        while (g > 0 && !(v[a + 1 + g] + f * (v[b + 1 + g] - v[a + 1 + g]) > y)) g--;
-        while (g < G - 2 && v[a + 2 + g] + f * (v[b + 2 + g] - v[a + 2 + g]) > y) g++;
-        hunt[j] = g;
-        const r0 = v[a + 1 + g] + f * (v[b + 1 + g] - v[a + 1 + g]);
-        const r1 = v[a + 2 + g] + f * (v[b + 2 + g] - v[a + 2 + g]);
-        const t = (r0 - y) / (r0 - r1);
-        q = 1 - Math.exp(L[g] + t * (L[g + 1] - L[g])) / 100;
+    // kTop: levels with y ≥ top (and ≥ rc: they close in clear sky too).
+    const lim = xi - (top > rc ? top : rc);
+    while (kTop > 0 && !(th[kTop - 1] <= lim)) kTop--;
+    while (kTop < nl && th[kTop] <= lim) kTop++;
+    let expected = qTop * cum[kTop];
+    let p0 = kTop > 0 ? qTop : 0, c0 = kTop > 0 ? 1 : 0;
+    let j = kTop;
+    if (j < nl) {
+      // The first level left: its own hunt (from the previous step's interval) and the row values around it.
+      const y0 = xi - th[j];
+      if (y0 >= rc) {
+        let g = g0;
+        if (y0 < bot) {
+          // Fails at 5 %: every level from here that closes in clear sky gets the 5 % clamp.
+          if (j === 0) { p0 = qBottom; c0 = 1; }
+          for (; j < nl && xi - th[j] >= rc; j++) expected += dr[j] * qBottom;
+        } else {
+          while (g > 0 && !(v[a + 1 + g] + f * (v[b + 1 + g] - v[a + 1 + g]) > y0)) g--;
+          let r0 = v[a + 1 + g] + f * (v[b + 1 + g] - v[a + 1 + g]);
+          let r1 = v[a + 2 + g] + f * (v[b + 2 + g] - v[a + 2 + g]);
+          while (g < G - 2 && r1 > y0) { g++; r0 = r1; r1 = v[a + 2 + g] + f * (v[b + 2 + g] - v[a + 2 + g]); }
+          g0 = g;
+          if (j === 0) c0 = 0;
+          // Levels inside the range: D(p_g) = r0 > y ≥ r1 = D(p_{g+1}), g walking forwards as y falls.
+          for (; j < nl; j++) {
+            const y = xi - th[j];
+            if (!(y >= bot) || !(y >= rc)) break;
+            while (g < G - 2 && r1 > y) { g++; r0 = r1; r1 = v[a + 2 + g] + f * (v[b + 2 + g] - v[a + 2 + g]); }
+            // p* = p_g exp(t ln(p_{g+1}/p_g)), t the place of y between r0 and r1 (interpolation in ln p);
+            // exp(u) − 1 by its series, scaled so t = 0 and t = 1 give p_g and p_{g+1} exactly.
+            const u = ((r0 - y) / (r0 - r1)) * dl[g];
+            const q = 1 - (pg[g] + es[g] * (u * (1 + u * (0.5 + u * (1 / 6 + u * (1 / 24 + u / 120)))))) / 100;
+            if (j === 0) p0 = q;
+            expected += dr[j] * q;
+          }
+          // Then the levels that fail at 5 % but close in clear sky.
+          for (; j < nl && xi - th[j] >= rc; j++) { if (j === 0) { p0 = qBottom; c0 = 1; } expected += dr[j] * qBottom; }
+        }
       }
-      if (j === 0) { p0 = q; c0 = c; }
-      expected += dr[j] * q;
     }
     prob[i] = p0; rate[i] = expected; clamped[i] = c0;
   }
+  hunt[0] = kTop; hunt[1] = g0;
 }

@@ -11,7 +11,7 @@ import { createLinkEngine } from '../../src/budget/engine.js';
 import type { Climate, LinkSpec, WeatherCase } from '../../src/budget/types.js';
 import type { ElevationTable } from '../../src/budget/atmosphere.js';
 import {
-  CLOSING_PROBABILITY_AT_P_MAX, CLOSING_PROBABILITY_MAX, weatherColumns, weatherGrid, weatherLevels, type WeatherTable,
+  CLOSING_PROBABILITY_AT_P_MAX, CLOSING_PROBABILITY_MAX, weatherColumns, weatherGrid, weatherLevels, weatherTableOf, type WeatherTable,
 } from '../../src/budget/weather.js';
 import { rainAttenuation, scintillationFade, totalAttenuation } from '../../src/models/p618.js';
 import { loadTable, referencePath } from '../models/reference.js';
@@ -170,7 +170,7 @@ describe('the inversion returns p at the published A_T(p) (ITU-R SG3 validation 
       });
     });
     for (let g = grid.length - 1; g >= 1; g--) values[g] = Math.max(values[g], values[g + 1]);
-    return { pPercent: grid, lnP: grid.map(Math.log), width: grid.length + 1, values, tableTermsPerNode: 1 };
+    return weatherTableOf(grid, values, 1);
   };
   const invert = (wt: WeatherTable, attenuationDB: number) => {
     const prob = new Float64Array(1), rate = new Float64Array(1), cl = new Uint8Array(1);
