@@ -10,3 +10,4 @@ export * from './maskHistogram.js';
 export * from './rateHistogram.js';
 export * from './stats.js';
 export * from './passTable.js';
+export * from './weatherDaily.js';

@@ -95,6 +95,8 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
   }));
   let steps = 0;
   let lastTimeS = -Infinity;
+  // Weather as a probability: expected bits, expected usable time, swept time, least probability of the clear-sky-closing steps.
+  let wBits = 0, wUsableS = 0, wSweptS = 0, wMinProb = Infinity;
   const one: OneCase = { marginDB: new Float64Array(1), usable: new Uint8Array(1), informationRateBps: new Float64Array(1), esN0DB: new Float64Array(1) };
   let finished = false;
 
@@ -131,6 +133,20 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
     if (adaptive) for (let i = from; i < to; i++) s.fit.add(es[i], dtS);
   }
 
+  /** The weather-probability sums over entries [from, to) (probability; expected rate in Mb/s). */
+  function weatherSums(prob: Float64Array, rateMbps: Float64Array, from: number, to: number, dtS: number): void {
+    let bits = wBits * 1, us = wUsableS * 1, minP = wMinProb * 1;
+    dtS *= 1;
+    for (let i = from; i < to; i++) {
+      const q = prob[i];
+      bits += rateMbps[i] * 1e6 * dtS;
+      us += q * dtS;
+      if (q > 0 && q < minP) minP = q;
+    }
+    wBits = bits; wUsableS = us; wMinProb = minP; wSweptS += (to - from) * dtS;
+  }
+  const oneProb = new Float64Array(1), oneRate = new Float64Array(1);
+
   function checkTime(timeS: number): void {
     if (finished) throw new Error(`pass accumulator ${pass.passId}: add() after finish()`);
     if (timeS < lastTimeS) throw new Error(`pass accumulator ${pass.passId}: step at ${timeS} s is before ${lastTimeS} s`);
@@ -147,6 +163,7 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
       steps = 0;
       lastTimeS = -Infinity;
       finished = false;
+      wBits = 0; wUsableS = 0; wSweptS = 0; wMinProb = Infinity;
     },
     add(timeS, dtS, _elevationDeg, step) {
       checkTime(timeS);
@@ -157,12 +174,16 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
         one.marginDB[0] = c.margin_db; one.usable[0] = c.usable ? 1 : 0; one.informationRateBps[0] = c.information_rate_bps; one.esN0DB[0] = c.es_over_n0_db;
         caseColumns(s, one, 0, 1, timeS, 0, dtS);
       }
+      oneProb[0] = step.closing_probability; oneRate[0] = step.expected_information_rate_mbps;
+      weatherSums(oneProb, oneRate, 0, 1, dtS);
     },
     addColumns(cols, from, to, originS, k0, dtS) {
       if (to <= from) return;
       checkTime(originS + (k0 + from) * dtS);
       if (cols.cases.length !== states.length) throw new Error(`pass accumulator ${pass.passId}: columns have ${cols.cases.length} weather cases, expected ${states.length}`);
       for (let k = 0; k < states.length; k++) caseColumns(states[k], cols.cases[k], from, to, originS, k0, dtS);
+      // Columns without the weather probability (the report's what-if recomputation carries none) skip its sums.
+      if (cols.closingProbability) weatherSums(cols.closingProbability, cols.expectedInformationRateMbps, from, to, dtS);
       steps += to - from;
       lastTimeS = originS + (k0 + to - 1) * dtS;
     },
@@ -208,6 +229,10 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
         clippedStart: pass.clippedStart,
         clippedEnd: pass.clippedEnd,
         steps,
+        expectedVolumeBits: wBits,
+        expectedUsableS: wUsableS,
+        sweptS: wSweptS,
+        closesThroughoutProbability: Number.isNaN(wBits) ? NaN : wMinProb === Infinity ? 0 : wMinProb,
         cases,
       };
     },

@@ -26,9 +26,11 @@ export interface PassTableState {
   caseNums: Float64Array;
   /** Per row and case: verdict (0 usable, 1 marginal, 2 unusable), verdict-rule string index. */
   caseInts: Int32Array;
+  /** Per row: expected volume (bits), expected usable time, swept time (s), probability of closing throughout. */
+  weatherNums: Float64Array;
 }
 
-const TEXT = 5, TIMES = 5, INTS = 4, CASE_NUMS = 8, CASE_INTS = 2;
+const TEXT = 5, TIMES = 5, INTS = 4, CASE_NUMS = 8, CASE_INTS = 2, WEATHER_NUMS = 4;
 
 export class PassLinkTable implements Iterable<PassLinkSummary> {
   readonly weather: string[];
@@ -41,6 +43,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
   private ints = new Int32Array(0);
   private caseNums = new Float64Array(0);
   private caseInts = new Int32Array(0);
+  private weatherNums = new Float64Array(0);
 
   constructor(weather: readonly string[]) {
     this.weather = [...weather];
@@ -64,6 +67,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
     this.ints = g(this.ints, INTS, (k) => new Int32Array(k));
     this.caseNums = g(this.caseNums, CASE_NUMS * nc, (k) => new Float64Array(k));
     this.caseInts = g(this.caseInts, CASE_INTS * nc, (k) => new Int32Array(k));
+    this.weatherNums = g(this.weatherNums, WEATHER_NUMS, (k) => new Float64Array(k));
     this.cap = cap;
   }
 
@@ -80,6 +84,9 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
     const k = r * INTS;
     this.ints[k] = p.steps; this.ints[k + 1] = p.clippedStart ? 1 : 0; this.ints[k + 2] = p.clippedEnd ? 1 : 0;
     this.ints[k + 3] = p.cases.some((c) => c.adaptiveVolumeBits !== null) ? 1 : 0;
+    const wn = r * WEATHER_NUMS;
+    this.weatherNums[wn] = p.expectedVolumeBits; this.weatherNums[wn + 1] = p.expectedUsableS;
+    this.weatherNums[wn + 2] = p.sweptS; this.weatherNums[wn + 3] = p.closesThroughoutProbability;
     p.cases.forEach((c, j) => {
       if (c.weather !== this.weather[j]) throw new Error(`pass table: case ${j} of ${p.passId} is ${c.weather}, expected ${this.weather[j]}`);
       const o = (r * nc + j) * CASE_NUMS;
@@ -98,7 +105,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
   get(i: number): PassLinkSummary {
     if (!(i >= 0 && i < this.n)) throw new RangeError(`pass table: row ${i} outside 0–${this.n - 1}`);
     const s = this.strings;
-    const t = i * TEXT, m = i * TIMES, k = i * INTS;
+    const t = i * TEXT, m = i * TIMES, k = i * INTS, wn = i * WEATHER_NUMS, w = this.weatherNums;
     const nc = this.weather.length;
     const adaptive = this.ints[k + 3] === 1;
     const cases: PassCaseSummary[] = this.weather.map((w, j) => {
@@ -116,7 +123,8 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
       passId: s[this.text[t]], satellite: s[this.text[t + 1]], station: s[this.text[t + 2]], link: s[this.text[t + 3]],
       direction: s[this.text[t + 4]] as PassLinkSummary['direction'],
       aosS: this.times[m], tcaS: this.times[m + 1], losS: this.times[m + 2], maxElevationDeg: this.times[m + 3], durationS: this.times[m + 4],
-      clippedStart: this.ints[k + 1] === 1, clippedEnd: this.ints[k + 2] === 1, steps: this.ints[k], cases,
+      clippedStart: this.ints[k + 1] === 1, clippedEnd: this.ints[k + 2] === 1, steps: this.ints[k],
+      expectedVolumeBits: w[wn], expectedUsableS: w[wn + 1], sweptS: w[wn + 2], closesThroughoutProbability: w[wn + 3], cases,
     };
   }
 
@@ -148,6 +156,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
     this.ints = permute(this.ints, INTS, (k) => new Int32Array(k));
     this.caseNums = permute(this.caseNums, CASE_NUMS * nc, (k) => new Float64Array(k));
     this.caseInts = permute(this.caseInts, CASE_INTS * nc, (k) => new Int32Array(k));
+    this.weatherNums = permute(this.weatherNums, WEATHER_NUMS, (k) => new Float64Array(k));
   }
 
   /** The table as plain data (copies trimmed to its length), for a worker to post. */
@@ -157,6 +166,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
       weather: [...this.weather], strings: [...this.strings], n: this.n,
       text: this.text.slice(0, this.n * TEXT), times: this.times.slice(0, this.n * TIMES), ints: this.ints.slice(0, this.n * INTS),
       caseNums: this.caseNums.slice(0, this.n * nc * CASE_NUMS), caseInts: this.caseInts.slice(0, this.n * nc * CASE_INTS),
+      weatherNums: this.weatherNums.slice(0, this.n * WEATHER_NUMS),
     };
   }
 
@@ -171,6 +181,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
     this.times.set(st.times, r0 * TIMES);
     this.ints.set(st.ints, r0 * INTS);
     this.caseNums.set(st.caseNums, r0 * nc * CASE_NUMS);
+    this.weatherNums.set(st.weatherNums, r0 * WEATHER_NUMS);
     for (let i = 0; i < st.n * nc * CASE_INTS; i += CASE_INTS) {
       this.caseInts[r0 * nc * CASE_INTS + i] = st.caseInts[i];
       this.caseInts[r0 * nc * CASE_INTS + i + 1] = map[st.caseInts[i + 1]];

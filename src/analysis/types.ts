@@ -4,6 +4,8 @@
  * mask and rate trade curves. Times are Unix seconds UTC; volumes in bits.
  */
 
+import type { WeatherTotal } from './weatherDaily.js';
+
 export type Verdict = 'usable' | 'marginal' | 'unusable';
 
 /** One pass, one link, one weather case. */
@@ -46,6 +48,16 @@ export interface PassLinkSummary {
   clippedEnd: boolean;
   /** Steps evaluated in the pass. */
   steps: number;
+  /**
+   * Weather as a probability (budget/weather.ts): Σ expected rate × Δt (bits), Σ closing probability × Δt (s),
+   * Σ Δt (s), and the probability that the pass closes at every step that closes in clear sky, with one
+   * weather state (one exceedance percentage) for the minutes of the pass: the least closing probability
+   * of those steps (0 when none closes in clear sky). NaN without weather cases.
+   */
+  expectedVolumeBits: number;
+  expectedUsableS: number;
+  sweptS: number;
+  closesThroughoutProbability: number;
   cases: PassCaseSummary[];
 }
 
@@ -129,6 +141,8 @@ export interface RunSummary {
   inputsSha256: string;
   files: string[];
   cautions: string[];
+  /** Per station link: expected volume per day over the year's weather, availability (weatherDaily.ts). */
+  weatherProbability?: WeatherTotal[];
   /** Required margin per link name (dB), for the report. */
   requiredMarginDB?: Record<string, number>;
   /** Horizon mask per station as an (azimuth, elevation) polyline (deg), for the report. */

@@ -29,11 +29,12 @@
 import {
   cloudAttenuation, externalNoiseIsExtrapolated, externalNoiseTemperatureK, gasSlantAttenuation, gasSlantFromZenith,
   gasZenithAttenuation, gOverTDBK, type GasZenith,
-  rainAttenuation, scintillationFade, skyNoiseTemperatureK, systemNoiseTemperatureK, totalAttenuation,
+  rainAttenuation, rainAttenuation001, rainAttenuationAt, scintillationFade, scintillationSigma, scintillationTimeFactor, skyNoiseTemperatureK, systemNoiseTemperatureK, totalAttenuation,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
 import type { AntennaPattern } from './antenna.js';
 import type { Climate, LinkSpec, WeatherCase } from './types.js';
+import type { WeatherTable } from './weather.js';
 
 /** Index of each term in a case's block of TERM_COUNT numbers. */
 export const TERM = {
@@ -167,12 +168,8 @@ export function createAtmosphereContext(
   };
 }
 
-/**
- * Direct evaluation of every term, for every weather case, at one elevation
- * (deg, clamped to 0–90). Writes case-major blocks of TERM_COUNT into `out`.
- */
-export function atmosphereAt(ctx: AtmosphereContext, elevationDeg: number, out: Float64Array): Float64Array {
-  const el = Math.min(90, Math.max(0, elevationDeg));
+/** Gas and the clear-sky cloud at one elevation (deg, already clamped): the terms every case shares. */
+function sharedTerms(ctx: AtmosphereContext, el: number): { gas: number; cloudClear: number } {
   ctx.gasArgs.elevationDeg = el;
   // The zenith parts (line-by-line specific attenuation, equivalent heights) do not depend on
   // elevation: computed once per context, then only the path factor per elevation.
@@ -183,48 +180,93 @@ export function atmosphereAt(ctx: AtmosphereContext, elevationDeg: number, out: 
     ctx.cloudClearArgs.elevationDeg = el;
     cloudClear = cloudAttenuation(ctx.cloudClearArgs);
   }
+  return { gas, cloudClear };
+}
+
+/** The weather cases' cloud attenuation at one elevation (climate.cloudLiquidWaterKgM2). */
+function caseCloud(ctx: AtmosphereContext, el: number): number {
+  ctx.cloudArgs.elevationDeg = el;
+  return ctx.climate.cloudLiquidWaterKgM2 > 0 ? cloudAttenuation(ctx.cloudArgs) : 0;
+}
+
+/**
+ * One case's block of TERM_COUNT at out[o…] from its parts: total per P.618-13 §2.5
+ * (clear sky, p null: gas + cloud), then the receive noise it brings.
+ */
+function caseBlock(ctx: AtmosphereContext, p: number | null, gas: number, cl: number, rain: number, scint: number, out: Float64Array, o: number): void {
+  let total: number, absorptive: number;
+  if (p === null) {
+    total = gas + cl;
+    absorptive = total;
+  } else {
+    const t = ctx.totalArgs;
+    t.exceedancePercent = p; t.gasDB = gas; t.gasAt1PctDB = gas; t.cloudDB = cl; t.cloudAt1PctDB = cl;
+    t.rainDB = rain; t.scintillationDB = scint;
+    total = totalAttenuation(t);
+    t.scintillationDB = 0;
+    absorptive = totalAttenuation(t);
+  }
+  let ta = ctx.fixedAntennaTemperatureK;
+  if (ctx.skyNoise) {
+    ctx.skyArgs.attenuationDB = absorptive;
+    ta += skyNoiseTemperatureK(ctx.skyArgs);
+  }
+  ctx.sysArgs.antennaTemperatureK = ta;
+  const tsys = systemNoiseTemperatureK(ctx.sysArgs);
+  out[o + TERM.gas] = gas;
+  out[o + TERM.rain] = rain;
+  out[o + TERM.cloud] = cl;
+  out[o + TERM.scintillation] = scint;
+  out[o + TERM.total] = total;
+  out[o + TERM.antennaTemperatureK] = ta;
+  out[o + TERM.systemTemperatureK] = tsys;
+  ctx.gtArgs.systemTemperatureK = tsys;
+  out[o + TERM.gOverTBoresightDBK] = gOverTDBK(ctx.gtArgs);
+}
+
+/**
+ * Direct evaluation of every term, for every weather case, at one elevation
+ * (deg, clamped to 0–90). Writes case-major blocks of TERM_COUNT into `out`.
+ */
+export function atmosphereAt(ctx: AtmosphereContext, elevationDeg: number, out: Float64Array): Float64Array {
+  const el = Math.min(90, Math.max(0, elevationDeg));
+  const { gas, cloudClear } = sharedTerms(ctx, el);
   let cloud = NaN;
   const cases = ctx.weatherCases;
   for (let i = 0; i < cases.length; i++) {
     const p = cases[i].exceedancePercent;
-    const o = i * TERM_COUNT;
-    let rain = 0, cl = cloudClear, scint = 0, total: number, absorptive: number;
-    if (p === null) {
-      total = gas + cloudClear;
-      absorptive = total;
-    } else {
-      if (Number.isNaN(cloud)) {
-        ctx.cloudArgs.elevationDeg = el;
-        cloud = ctx.climate.cloudLiquidWaterKgM2 > 0 ? cloudAttenuation(ctx.cloudArgs) : 0;
-      }
-      cl = cloud;
-      ctx.rainArgs.elevationDeg = el; ctx.rainArgs.exceedancePercent = p;
-      rain = rainAttenuation(ctx.rainArgs).attenuationDB;
-      ctx.scintArgs.elevationDeg = el; ctx.scintArgs.exceedancePercent = p;
-      scint = scintillationFade(ctx.scintArgs) * ctx.scintillationScale;
-      const t = ctx.totalArgs;
-      t.exceedancePercent = p; t.gasDB = gas; t.gasAt1PctDB = gas; t.cloudDB = cl; t.cloudAt1PctDB = cl;
-      t.rainDB = rain; t.scintillationDB = scint;
-      total = totalAttenuation(t);
-      t.scintillationDB = 0;
-      absorptive = totalAttenuation(t);
-    }
-    let ta = ctx.fixedAntennaTemperatureK;
-    if (ctx.skyNoise) {
-      ctx.skyArgs.attenuationDB = absorptive;
-      ta += skyNoiseTemperatureK(ctx.skyArgs);
-    }
-    ctx.sysArgs.antennaTemperatureK = ta;
-    const tsys = systemNoiseTemperatureK(ctx.sysArgs);
-    out[o + TERM.gas] = gas;
-    out[o + TERM.rain] = rain;
-    out[o + TERM.cloud] = cl;
-    out[o + TERM.scintillation] = scint;
-    out[o + TERM.total] = total;
-    out[o + TERM.antennaTemperatureK] = ta;
-    out[o + TERM.systemTemperatureK] = tsys;
-    ctx.gtArgs.systemTemperatureK = tsys;
-    out[o + TERM.gOverTBoresightDBK] = gOverTDBK(ctx.gtArgs);
+    if (p === null) { caseBlock(ctx, null, gas, cloudClear, 0, 0, out, i * TERM_COUNT); continue; }
+    if (Number.isNaN(cloud)) cloud = caseCloud(ctx, el);
+    ctx.rainArgs.elevationDeg = el; ctx.rainArgs.exceedancePercent = p;
+    const rain = rainAttenuation(ctx.rainArgs).attenuationDB;
+    ctx.scintArgs.elevationDeg = el; ctx.scintArgs.exceedancePercent = p;
+    const scint = scintillationFade(ctx.scintArgs) * ctx.scintillationScale;
+    caseBlock(ctx, p, gas, cloud, rain, scint, out, i * TERM_COUNT);
+  }
+  return out;
+}
+
+/**
+ * The same terms as atmosphereAt for clear sky and then every p of `pPercent`
+ * (0.001–5 %, blocks 0, 1 … n in `out`), at one elevation: the p-independent
+ * parts of rain (A0.01) and scintillation (σ) once, then P.618-13's laws in p
+ * (§2.2.1.1 steps 9–10, §2.4.1 steps 8–9). The same arithmetic as atmosphereAt,
+ * so at a weather case's p both give the same numbers.
+ */
+export function atmosphereCurve(ctx: AtmosphereContext, elevationDeg: number, pPercent: Float64Array, out: Float64Array): Float64Array {
+  const el = Math.min(90, Math.max(0, elevationDeg));
+  const { gas, cloudClear } = sharedTerms(ctx, el);
+  caseBlock(ctx, null, gas, cloudClear, 0, 0, out, 0);
+  const cloud = caseCloud(ctx, el);
+  ctx.rainArgs.elevationDeg = el; ctx.rainArgs.exceedancePercent = 1;
+  const r001 = rainAttenuation001(ctx.rainArgs);
+  ctx.scintArgs.elevationDeg = el; ctx.scintArgs.exceedancePercent = 1;
+  const sigma = scintillationSigma(ctx.scintArgs);
+  for (let g = 0; g < pPercent.length; g++) {
+    const p = pPercent[g];
+    const rain = rainAttenuationAt(r001, p);
+    const scint = sigma * scintillationTimeFactor(p) * ctx.scintillationScale;
+    caseBlock(ctx, p, gas, cloud, rain, scint, out, (g + 1) * TERM_COUNT);
   }
   return out;
 }
@@ -236,6 +278,8 @@ export interface ElevationTable {
   caseCount: number;
   /** Largest estimated interpolation error met while refining (dB). */
   toleranceDB: number;
+  /** The weather-probability table on these nodes (weather.ts), attached by the engine. */
+  weather?: WeatherTable;
 }
 
 /** Difference in dB between two values of a term (temperatures compared as 10 log10 ratios). */

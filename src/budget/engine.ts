@@ -45,6 +45,7 @@ import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from 
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
 import { applyCaseRule, createCaseRule } from './caseRule.js';
+import { buildWeatherTable, weatherColumns, weatherLevels } from './weather.js';
 import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
 
 export interface LinkEngineOptions {
@@ -58,6 +59,8 @@ export interface LinkEngineOptions {
    * (e.g. built in another thread and structured-cloned); skips building one.
    */
   table?: ElevationTable;
+  /** Weather as a probability (weather.ts; default true): false leaves its step columns NaN and builds no table. */
+  weatherProbability?: boolean;
 }
 
 /** Intermediate values of the last evaluated step (for explain; overwritten each step). */
@@ -135,6 +138,7 @@ export function createStepBudget(weatherCases: readonly WeatherCase[]): StepBudg
     time_s: NaN, range_km: NaN, elevation_deg: NaN, azimuth_deg: NaN, tx_off_boresight_deg: NaN, rx_off_boresight_deg: NaN,
     eirp_dbw: NaN, free_space_loss_db: NaN, polarisation_loss_db: NaN, tx_pointing_loss_db: NaN, rx_pointing_loss_db: NaN,
     other_losses_db: NaN, mount_lag_deg: 0, mount_limited: false, doppler_hz: NaN, doppler_rate_hz_s: NaN,
+    closing_probability: NaN, expected_information_rate_mbps: NaN, closing_probability_clamped: false,
     cases: weatherCases.map((w) => createCaseBudget(w.name)),
   };
 }
@@ -180,6 +184,10 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   }
   const table = options.table ?? buildElevationTable(ctx, options.tableToleranceDB);
   const nTerms = weatherCases.length * TERM_COUNT;
+  // Weather as a probability: its table on the elevation table's nodes, built once with it (and shipped with it).
+  const wantWeather = options.weatherProbability !== false && weatherCases.length > 0;
+  if (wantWeather) table.weather ??= buildWeatherTable(ctx, table);
+  const weather = wantWeather ? table.weather ?? null : null;
 
   // Constant per link.
   const txPowerDBW = txEnd.txPowerDBW as number;
@@ -242,17 +250,25 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     spacecraftOffBoresightDeg: NaN, groundOffBoresightDeg: NaN,
   };
   const caseRule = createCaseRule(link);
+  const modeTable = caseRule.modeTable;
+  const reqMargin = caseRule.requiredMarginDB, impl = caseRule.implementationLossDB;
+  // Closing levels for the weather probability: the required margin on the margin column (fixed), or each
+  // distinct mode threshold on the effective Es/N0 (adaptive), worth the rate it adds (Mb/s).
+  const levels = modeTable
+    ? weatherLevels(modeTable.thresholdsDB, Array.from(modeTable.modeFrom, (m) => (symbolRate * modes[m].efficiencyBitsPerSymbol) / 1e6))
+    : weatherLevels([reqMargin], [bitRate / 1e6]);
+  const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
   const modeNames = modes.map((m) => m.name);
   // Ground pointing loss of a program track when the mount does not lag (lag 0: the error alone).
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
   // Scratch columns, grown on demand (held in one object so the loops below take them as locals).
-  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0) };
+  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0), x: new Float64Array(0) };
   function scratch(n: number): void {
     if (n <= sc.cap) return;
     const cap = Math.max(n, 2 * sc.cap);
     sc.cap = cap;
-    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap);
+    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap); sc.x = new Float64Array(cap);
   }
 
   /** Spacecraft antenna gain at the off-boresight angle and the pointing loss of the attitude error (≥ 0). */
@@ -363,6 +379,18 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
         tableTermPairColumn(table, o + TERM.antennaTemperatureK, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK, c.systemTemperatureK);
       }
       caseTerms(c, n, sc.base, out.rxGainDBi, full);
+    }
+    if (weather) {
+      const c0 = out.cases[0];
+      let x = c0.marginDB;
+      if (modeTable) {
+        x = sc.x;
+        const es = c0.esN0DB, im = impl * 1;
+        for (let i = 0; i < n; i++) x[i] = es[i] - im;
+      }
+      weatherColumns(weather, levels, n, lo, hiOff, frac, x, out.closingProbability, out.expectedInformationRateMbps, out.closingClamped);
+    } else {
+      out.closingProbability.fill(NaN, 0, n); out.expectedInformationRateMbps.fill(NaN, 0, n); out.closingClamped.fill(0, 0, n);
     }
     return out;
   }

@@ -8,3 +8,4 @@ export * from './engine.js';
 export * from './explain.js';
 export * from './instant.js';
 export * from './linkColumns.js';
+export * from './weather.js';

@@ -48,6 +48,14 @@ export interface LinkColumns {
   dopplerRateHzS: Float64Array;
   /** Elevation the atmospheric terms were taken at (apparent, clamped to 0–90°). */
   atmosphericElevationDeg: Float64Array;
+  /**
+   * Weather as a probability (weather.ts): probability that the step closes over the
+   * year's weather, the expected information rate (Mb/s), and 1 where the probability
+   * was clamped at the model's 0.001–5 % range.
+   */
+  closingProbability: Float64Array;
+  expectedInformationRateMbps: Float64Array;
+  closingClamped: Uint8Array;
   /** Constant per link. */
   polarisationLossDB: number;
   otherLossesDB: number;
@@ -70,6 +78,7 @@ export function createLinkColumns(capacity: number, caseCount: number): LinkColu
     txOffBoresightDeg: f(), rxOffBoresightDeg: f(), txGainDBi: f(), rxGainDBi: f(), eirpDBW: f(), freeSpaceLossDB: f(),
     txPointingLossDB: f(), rxPointingLossDB: f(), mountLagDeg: f(), mountLimited: new Uint8Array(capacity),
     dopplerHz: f(), dopplerRateHzS: f(), atmosphericElevationDeg: f(),
+    closingProbability: f(), expectedInformationRateMbps: f(), closingClamped: new Uint8Array(capacity),
     polarisationLossDB: NaN, otherLossesDB: NaN,
     cases: Array.from({ length: caseCount }, () => caseColumns(capacity)),
   };
@@ -97,6 +106,9 @@ export function readStep(stn: StationColumns, c: LinkColumns, i: number, timeS: 
   out.mount_limited = c.mountLimited[i] === 1;
   out.doppler_hz = c.dopplerHz[i];
   out.doppler_rate_hz_s = c.dopplerRateHzS[i];
+  out.closing_probability = c.closingProbability[i];
+  out.expected_information_rate_mbps = c.expectedInformationRateMbps[i];
+  out.closing_probability_clamped = c.closingClamped[i] === 1;
   for (let k = 0; k < out.cases.length; k++) {
     const s = c.cases[k];
     const o = out.cases[k];

@@ -167,5 +167,11 @@ export interface StepBudget {
   mount_limited: boolean;
   doppler_hz: number;
   doppler_rate_hz_s: number;
+  /** Probability that the step closes over an average year's weather (P.618 inverted, weather.ts). */
+  closing_probability: number;
+  /** Σ over rate levels of rate × the probability the level closes (Mb/s = 10^6 b/s). */
+  expected_information_rate_mbps: number;
+  /** The probability was clamped at the model's 0.001–5 % range. */
+  closing_probability_clamped: boolean;
   cases: CaseBudget[];
 }

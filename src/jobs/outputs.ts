@@ -9,6 +9,8 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { bitsToMegabytes } from '../analysis/units.js';
 import { runTotals } from '../analysis/stats.js';
+import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
+import { weatherDayOf, weatherDays, weatherTotals } from '../analysis/weatherDaily.js';
 import type { DailyRow, PassLinkSummary, RunSummary } from '../analysis/types.js';
 import { fmt, type CsvCell } from '../output/csv.js';
 import { STANDING_CAUTIONS } from '../output/report/header.js';
@@ -27,6 +29,7 @@ export const PASS_COLUMNS = [
   'min_margin_db', 'mean_margin_db', 'max_margin_db',
   'fixed_volume_bits', 'fixed_volume_mb', 'adaptive_volume_bits', 'adaptive_volume_mb',
   'verdict', 'verdict_rule',
+  'expected_volume_bits', 'expected_volume_mb', 'expected_usable_s', 'closes_throughout_probability',
 ];
 
 const iso = (t: number | null) => (t === null ? '' : formatIsoUtc(t));
@@ -44,6 +47,7 @@ export function passRows(passes: Iterable<PassLinkSummary>): CsvCell[][] {
         c.adaptiveVolumeBits === null ? '' : fmt(c.adaptiveVolumeBits, 0),
         c.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(c.adaptiveVolumeBits), 6),
         c.verdict, c.verdictRule,
+        fmt(p.expectedVolumeBits, 0), fmt(bitsToMegabytes(p.expectedVolumeBits), 6), fmt(p.expectedUsableS, 3), fmt(p.closesThroughoutProbability, 6),
       ]);
     }
   }
@@ -59,6 +63,9 @@ export function passJson(passes: Iterable<PassLinkSummary>): unknown[] {
     aos_utc: iso(p.aosS), tca_utc: iso(p.tcaS), los_utc: iso(p.losS),
     max_elevation_deg: round(p.maxElevationDeg, 3), duration_s: round(p.durationS, 3),
     clipped_start: p.clippedStart, clipped_end: p.clippedEnd, steps: p.steps,
+    expected_volume_bits: round(p.expectedVolumeBits, 0), expected_volume_mb: round(bitsToMegabytes(p.expectedVolumeBits), 6),
+    expected_usable_s: round(p.expectedUsableS, 3), swept_s: round(p.sweptS, 3),
+    closes_throughout_probability: round(p.closesThroughoutProbability, 6),
     weather: p.cases.map((c) => ({
       weather: c.weather,
       usable_start_utc: c.usableStartS === null ? null : iso(c.usableStartS),
@@ -76,15 +83,28 @@ export function passJson(passes: Iterable<PassLinkSummary>): unknown[] {
 export const DAILY_COLUMNS = [
   'day_utc', 'satellite', 'station', 'link', 'weather', 'passes', 'usable_passes', 'usable_min',
   'fixed_volume_mb', 'adaptive_volume_mb', 'longest_gap_h',
+  'expected_volume_mb', 'availability_fraction',
 ];
 
-export function dailyRows(daily: readonly DailyRow[]): CsvCell[][] {
-  return daily.map((d) => [
-    d.dayUtc, d.satellite, d.station, d.link, d.weather, d.passes, d.usablePasses, fmt(d.usableMinutes, 3),
-    fmt(bitsToMegabytes(d.fixedVolumeBits), 6),
-    d.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(d.adaptiveVolumeBits), 6),
-    fmt(d.longestGapH, 3),
-  ]);
+/**
+ * daily.csv rows; with `passes`, each station row also carries the link's expected volume over the year's
+ * weather and its availability that day (weatherDaily.ts: passes by AOS day; the same on every weather-case
+ * row, empty on network rows).
+ */
+export function dailyRows(daily: readonly DailyRow[], passes: Iterable<PassLinkSummary> = []): CsvCell[][] {
+  const days = weatherDays(passes);
+  return daily.map((d) => {
+    const w = d.station === NETWORK_STATION ? undefined : weatherDayOf(days, d.dayUtc, d.satellite, d.station, d.link);
+    const none = d.station === NETWORK_STATION || days.size === 0;
+    return [
+      d.dayUtc, d.satellite, d.station, d.link, d.weather, d.passes, d.usablePasses, fmt(d.usableMinutes, 3),
+      fmt(bitsToMegabytes(d.fixedVolumeBits), 6),
+      d.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(d.adaptiveVolumeBits), 6),
+      fmt(d.longestGapH, 3),
+      none ? '' : fmt(bitsToMegabytes(w?.expectedVolumeBits ?? 0), 6),
+      none || !w || !(w.sweptS > 0) ? '' : fmt(w.expectedUsableS / w.sweptS, 6),
+    ];
+  });
 }
 
 /** The published models the engine composes, for the provenance record. */
@@ -98,6 +118,7 @@ export const MODELS_USED = [
   { name: 'Cloud attenuation', source: 'ITU-R P.840' },
   { name: 'Scintillation', source: 'ITU-R P.618-13 §2.4.1, wet refractivity ITU-R P.453' },
   { name: 'Total attenuation', source: 'ITU-R P.618-13 §2.5' },
+  { name: 'Weather as a probability', source: 'ITU-R P.618-13 §2.2.1.1, §2.4.1, §2.5 inverted for the exceedance percentage (tabulated over 0.001–5 %)' },
   { name: 'Sky noise', source: 'ITU-R P.618 §3 (brightness temperature from attenuation)' },
   { name: 'External noise', source: 'ITU-R P.372 galactic and man-made (from memory)' },
   { name: 'Refraction', source: 'ITU-R P.834 (from memory)' },
@@ -136,9 +157,10 @@ export function softwareVersions(): { name: string; version: string }[] {
 }
 
 export function runSummary(
-  scenario: ResolvedScenario, daily: readonly DailyRow[], files: string[], extraWarnings: string[] = [],
+  scenario: ResolvedScenario, daily: readonly DailyRow[], files: string[], extraWarnings: string[] = [], passes?: Iterable<PassLinkSummary>,
 ): RunSummary {
   const { startS, endS, stepS } = scenario.window;
+  const weather = passes ? weatherTotals(passes, (endS - startS) / 86_400) : [];
   return {
     scenario: scenario.name,
     scenarioFile: scenario.file,
@@ -151,6 +173,7 @@ export function runSummary(
       ? `priority order: ${scenario.network.order.join(' > ')}`
       : 'best link at each step (highest information rate, then margin)',
     totals: runTotals(daily),
+    ...(weather.length > 0 ? { weatherProbability: weather } : {}),
     models: MODELS_USED,
     software: softwareVersions(),
     defaultsApplied: scenario.defaultsApplied,

@@ -57,6 +57,7 @@ interface PassJson {
   pass_id: string; satellite: string; station: string; link: string; direction: 'downlink' | 'uplink';
   aos_utc: string; tca_utc: string; los_utc: string; max_elevation_deg: number; duration_s: number;
   clipped_start: boolean; clipped_end: boolean; steps: number;
+  expected_volume_bits?: number | null; expected_usable_s?: number | null; swept_s?: number | null; closes_throughout_probability?: number | null;
   weather: {
     weather: string; usable_start_utc: string | null; usable_end_utc: string | null; usable_duration_s: number;
     min_margin_db: number | null; mean_margin_db: number | null; max_margin_db: number | null;
@@ -70,6 +71,8 @@ export function passesFromJson(list: PassJson[]): PassLinkSummary[] {
     aosS: time(p.aos_utc)!, tcaS: time(p.tca_utc)!, losS: time(p.los_utc)!,
     maxElevationDeg: p.max_elevation_deg, durationS: p.duration_s, clippedStart: p.clipped_start, clippedEnd: p.clipped_end,
     steps: p.steps,
+    expectedVolumeBits: p.expected_volume_bits ?? NaN, expectedUsableS: p.expected_usable_s ?? NaN,
+    sweptS: p.swept_s ?? NaN, closesThroughoutProbability: p.closes_throughout_probability ?? NaN,
     cases: p.weather.map((c) => ({
       weather: c.weather, usableStartS: time(c.usable_start_utc), usableEndS: time(c.usable_end_utc),
       usableDurationS: c.usable_duration_s,

@@ -149,11 +149,11 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     const passLinks = pipeline.passLinks.toArray();
     out.writeFile('passes.csv', await csvText(PASS_COLUMNS, passRows(passLinks)));
     out.writeFile('passes.json', `${JSON.stringify(passJson(passLinks), null, 2)}\n`);
-    out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily)));
+    out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily, passLinks)));
     // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
     out.writeFile('passes.ics', renderCalendar(passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
     const fileNames = [...(stepsFile ? [stepsFile] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
-    const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings), ...reportContext(scenario) };
+    const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings, passLinks), ...reportContext(scenario) };
     out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
     out.writeFile('summary.json', jsonText(summaryJson(summary)));
     const files = out.commit();
@@ -164,6 +164,32 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     out.discard();
     throw out.explain(err);
   }
+}
+
+/**
+ * Expected volume per day over an average year's weather beside the fixed cases' mean MB/day, per
+ * link and station, and the availability (share of in-view time the link is expected to close).
+ */
+function weatherTable(s: RunSummary): string[] {
+  const w = s.weatherProbability ?? [];
+  if (w.length === 0) return [];
+  const head = ['link', 'station', ...s.weatherCases.map((c) => `MB/day ${c}`), 'MB/day expected', 'availability %', 'passes/day closing throughout'];
+  const rows = w.map((t) => [
+    t.link, t.station,
+    ...s.weatherCases.map((c) => {
+      const f = s.totals.find((x) => x.link === t.link && x.station === t.station && x.weather === c);
+      return f ? bitsToMegabytes(f.dailyVolumeBits.mean).toFixed(2) : '';
+    }),
+    bitsToMegabytes(t.expectedVolumeBitsPerDay).toFixed(2),
+    Number.isFinite(t.availabilityFraction) ? (100 * t.availabilityFraction).toFixed(2) : '',
+    t.expectedPassesClosingThroughoutPerDay.toFixed(2),
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const fmtRow = (r: string[]) => r.map((c, i) => (i >= 2 ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ');
+  return [
+    '', 'Weather as a probability (ITU-R P.618-13 inverted over 0.001–5 % of an average year; one weather state per pass):',
+    fmtRow(head), widths.map((x) => '-'.repeat(x)).join('  '), ...rows.map(fmtRow),
+  ];
 }
 
 /** The terminal summary: per link and weather case, each station and the network. */
@@ -199,6 +225,7 @@ export function formatRunSummary(r: RunResult): string {
     prev = key;
     lines.push(fmtRow(r));
   }
+  lines.push(...weatherTable(s));
   lines.push('');
   lines.push('MB = 10^6 bytes. "usable" counts passes judged usable (see passes.csv verdict_rule).');
   for (const w of s.warnings) lines.push(`warning: ${w}`);

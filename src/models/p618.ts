@@ -47,6 +47,24 @@ export interface RainAttenuation { attenuationDB: number; slantPathKm: number }
  * (sin θ → 0 turns the vertical adjustment and the β term off), so 0° needs no clamp.
  */
 export function rainAttenuation(a: RainAttenuationInput): RainAttenuation {
+  const r = rainAttenuation001(a);
+  return { attenuationDB: rainAttenuationAt(r, a.exceedancePercent), slantPathKm: r.slantPathKm };
+}
+
+/** The p-independent part of §2.2.1.1 (steps 1–8): A0.01 and what steps 9–10 need. */
+export interface RainAttenuation001 {
+  a001DB: number;
+  slantPathKm: number;
+  absLatDeg: number;
+  elevationDeg: number;
+  sinElevation: number;
+}
+
+/**
+ * ITU-R P.618-13 §2.2.1.1 steps 1–8 (A0.01), checked as rainAttenuation checks its
+ * input (exceedancePercent included); steps 9–10 at any p by rainAttenuationAt.
+ */
+export function rainAttenuation001(a: RainAttenuationInput): RainAttenuation001 {
   const fn = 'rainAttenuation';
   checkRange(fn, 'frequencyGHz', a.frequencyGHz, P618_RAIN_VALIDITY.frequencyGHz, 'GHz');
   checkRange(fn, 'elevationDeg', a.elevationDeg, P618_RAIN_VALIDITY.elevationDeg, 'deg');
@@ -55,14 +73,16 @@ export function rainAttenuation(a: RainAttenuationInput): RainAttenuation {
   checkAtLeast(fn, 'rainRate001MmH', a.rainRate001MmH, 0, 'mm/h');
   checkAtLeast(fn, 'rainHeightKm', a.rainHeightKm, -Infinity, 'km');
   checkAtLeast(fn, 'stationHeightKm', a.stationHeightKm, -Infinity, 'km');
-  const f = a.frequencyGHz, p = a.exceedancePercent;
+  const f = a.frequencyGHz;
   const th = a.elevationDeg * DEG, sinT = Math.sin(th), cosT = Math.cos(th);
   const dh = a.rainHeightKm - a.stationHeightKm;
+  const absLat = Math.abs(a.latitudeDeg);
+  const none = (ls: number): RainAttenuation001 => ({ a001DB: 0, slantPathKm: ls, absLatDeg: absLat, elevationDeg: a.elevationDeg, sinElevation: sinT });
   // Step 1: station above the rain.
-  if (dh <= 0) return { attenuationDB: 0, slantPathKm: 0 };
+  if (dh <= 0) return none(0);
   // Step 2: slant path below the rain height.
   const ls = a.elevationDeg >= 5 ? dh / sinT : (2 * dh) / (Math.sqrt(sinT * sinT + (2 * dh) / RE_KM) + sinT);
-  if (a.rainRate001MmH === 0) return { attenuationDB: 0, slantPathKm: ls };
+  if (a.rainRate001MmH === 0) return none(ls);
   // Steps 3–4: horizontal projection and specific attenuation (P.838-3).
   const lg = ls * cosT;
   const { k, alpha } = rainSpecificCoefficients({ frequencyGHz: f, elevationDeg: a.elevationDeg, tiltDeg: a.tiltDeg });
@@ -72,19 +92,24 @@ export function rainAttenuation(a: RainAttenuationInput): RainAttenuation {
   // Step 6: vertical adjustment factor.
   const zetaDeg = Math.atan2(dh, lg * r001) / DEG;
   const lr = zetaDeg > a.elevationDeg ? (lg * r001) / cosT : dh / sinT;
-  const absLat = Math.abs(a.latitudeDeg);
   const chi = absLat < 36 ? 36 - absLat : 0;
   const v001 = 1 / (1 + Math.sqrt(sinT)
     * ((31 * (1 - Math.exp(-(a.elevationDeg / (1 + chi)))) * Math.sqrt(lr * gammaR)) / (f * f) - 0.45));
   // Steps 7–8: effective path length and A0.01.
   const a001 = gammaR * lr * v001;
-  // Steps 9–10: other percentages.
+  return { a001DB: a001, slantPathKm: ls, absLatDeg: absLat, elevationDeg: a.elevationDeg, sinElevation: sinT };
+}
+
+/** ITU-R P.618-13 §2.2.1.1 steps 9–10: A_p from A0.01 (0.001 % ≤ p ≤ 5 %; not checked here). */
+export function rainAttenuationAt(r: RainAttenuation001, p: number): number {
+  const a001 = r.a001DB, absLat = r.absLatDeg, sinT = r.sinElevation;
+  if (a001 === 0) return 0;
   let beta: number;
   if (p >= 1 || absLat >= 36) beta = 0;
-  else if (a.elevationDeg >= 25) beta = -0.005 * (absLat - 36);
+  else if (r.elevationDeg >= 25) beta = -0.005 * (absLat - 36);
   else beta = -0.005 * (absLat - 36) + 1.8 - 4.25 * sinT;
   const exponent = -(0.655 + 0.033 * Math.log(p) - 0.045 * Math.log(a001) - beta * (1 - p) * sinT);
-  return { attenuationDB: a001 * (p / 0.01) ** exponent, slantPathKm: ls };
+  return a001 * (p / 0.01) ** exponent;
 }
 
 export interface ScintillationInput {
@@ -106,6 +131,11 @@ const SCINT_MIN_ELEVATION_DEG = 5;
  * §2.4.2 is not implemented).
  */
 export function scintillationFade(a: ScintillationInput): number {
+  return scintillationSigma(a) * scintillationTimeFactor(a.exceedancePercent);
+}
+
+/** ITU-R P.618-13 §2.4.1 steps 1–7: the standard deviation σ of the signal (dB), input checked as scintillationFade checks it. */
+export function scintillationSigma(a: ScintillationInput): number {
   const fn = 'scintillationFade';
   checkRange(fn, 'frequencyGHz', a.frequencyGHz, P618_SCINTILLATION_VALIDITY.frequencyGHz, 'GHz');
   checkRange(fn, 'elevationDeg', a.elevationDeg, P618_SCINTILLATION_VALIDITY.elevationDeg, 'deg');
@@ -122,10 +152,13 @@ export function scintillationFade(a: ScintillationInput): number {
   const x = (1.22 * dEff * dEff * f) / l; // step 6
   const g2 = 3.86 * (x * x + 1) ** (11 / 12) * Math.sin((11 / 6) * Math.atan(1 / x)) - 7.08 * x ** (5 / 6);
   if (g2 <= 0) return 0; // P.618-13 step 6 (from memory): a negative argument (x ≥ 7.0) means the aperture averages the scintillation out, fade 0
-  const sigma = (sigmaRef * f ** (7 / 12) * Math.sqrt(g2)) / sinT ** 1.2; // step 7
-  const lp = Math.log10(a.exceedancePercent);
-  const ap = -0.061 * lp ** 3 + 0.072 * lp * lp - 1.71 * lp + 3.0; // step 8
-  return ap * sigma; // step 9
+  return (sigmaRef * f ** (7 / 12) * Math.sqrt(g2)) / sinT ** 1.2; // step 7
+}
+
+/** ITU-R P.618-13 §2.4.1 step 8: the time percentage factor a(p); the fade is a(p) σ (step 9). */
+export function scintillationTimeFactor(p: number): number {
+  const lp = Math.log10(p);
+  return -0.061 * lp ** 3 + 0.072 * lp * lp - 1.71 * lp + 3.0;
 }
 
 /**

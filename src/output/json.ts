@@ -7,6 +7,7 @@
  * Maps keyed by user names (links, stations) keep their keys as given.
  */
 import type { MaskFinding, RunSummary, RunTotals } from '../analysis/types.js';
+import type { WeatherTotal } from '../analysis/weatherDaily.js';
 import type { ExplainLine } from '../budget/explain.js';
 import { InputError } from '../errors.js';
 import { passRows } from '../passes/table.js';
@@ -46,8 +47,24 @@ export interface SummaryJson {
   files: string[];
   cautions: string[];
   required_margin_db?: Record<string, number>;
+  /** Per station link: weather as a probability (analysis/weatherDaily.ts). */
+  weather_probability?: WeatherTotalJson[];
   /** Per station, the horizon as [azimuth_deg, elevation_deg] points. */
   horizon_masks_deg?: Record<string, [number, number][]>;
+}
+
+export interface WeatherTotalJson {
+  satellite: string; station: string; link: string; passes: number;
+  expected_volume_bits_per_day: number; availability_fraction: number | null; expected_passes_closing_throughout_per_day: number;
+}
+
+function weatherTotalJson(t: WeatherTotal): WeatherTotalJson {
+  return {
+    satellite: t.satellite, station: t.station, link: t.link, passes: t.passes,
+    expected_volume_bits_per_day: t.expectedVolumeBitsPerDay,
+    availability_fraction: Number.isFinite(t.availabilityFraction) ? t.availabilityFraction : null,
+    expected_passes_closing_throughout_per_day: t.expectedPassesClosingThroughoutPerDay,
+  };
 }
 
 function totalsJson(t: RunTotals): SummaryTotalsJson {
@@ -72,6 +89,7 @@ export function summaryJson(s: RunSummary): SummaryJson {
     weather_cases: s.weatherCases,
     network_policy: s.networkPolicy,
     totals: s.totals.map(totalsJson),
+    ...(s.weatherProbability ? { weather_probability: s.weatherProbability.map(weatherTotalJson) } : {}),
     models: s.models,
     software: s.software,
     defaults_applied: s.defaultsApplied,
@@ -113,6 +131,13 @@ export function summaryFromJson(value: unknown, file: string): RunSummary {
         p10: orNaN(t.daily_volume_bits?.p10), p90: orNaN(t.daily_volume_bits?.p90),
       },
     })),
+    ...(o.weather_probability ? {
+      weatherProbability: o.weather_probability.map((t) => ({
+        satellite: t.satellite, station: t.station, link: t.link, passes: t.passes,
+        expectedVolumeBitsPerDay: t.expected_volume_bits_per_day, availabilityFraction: orNaN(t.availability_fraction),
+        expectedPassesClosingThroughoutPerDay: t.expected_passes_closing_throughout_per_day,
+      })),
+    } : {}),
     models: o.models ?? [],
     software: o.software ?? [],
     defaultsApplied: o.defaults_applied ?? [],

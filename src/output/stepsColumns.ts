@@ -12,6 +12,7 @@ import { fmt, type CsvCell } from './csv.js';
 /** Decimals per numeric column (by unit suffix), so files stay readable and deterministic. */
 export function decimalsFor(column: string): number {
   if (column.endsWith('_bps')) return 0;
+  if (column === 'closing_probability' || column.endsWith('_mbps')) return 6;
   if (column === 'doppler_hz') return 1;
   if (column.endsWith('_hz_s')) return 2;
   if (column.endsWith('_k')) return 2;
@@ -41,6 +42,8 @@ export const STEP_SOURCE: Record<string, string> = {
   free_space_loss_db: 'c.freeSpaceLossDB[i]', polarisation_loss_db: 'c.polarisationLossDB', tx_pointing_loss_db: 'c.txPointingLossDB[i]',
   rx_pointing_loss_db: 'c.rxPointingLossDB[i]', other_losses_db: 'c.otherLossesDB', mount_lag_deg: 'c.mountLagDeg[i]',
   mount_limited: 'c.mountLimited[i]', doppler_hz: 'c.dopplerHz[i]', doppler_rate_hz_s: 'c.dopplerRateHzS[i]',
+  closing_probability: 'c.closingProbability[i]', expected_information_rate_mbps: 'c.expectedInformationRateMbps[i]',
+  closing_probability_clamped: 'c.closingClamped[i]',
 };
 export const CASE_SOURCE: Record<string, string> = {
   gas_loss_db: 'k.gasDB[i]', rain_loss_db: 'k.rainDB[i]', cloud_loss_db: 'k.cloudDB[i]', scintillation_db: 'k.scintillationDB[i]',
@@ -49,7 +52,7 @@ export const CASE_SOURCE: Record<string, string> = {
   required_eb_over_n0_db: 'k.requiredEbN0DB[i]', margin_db: 'k.marginDB[i]', usable: 'k.usable[i]', mode: 'k.mode[i]',
   information_rate_bps: 'k.informationRateBps[i]',
 };
-export const BOOLEAN_FIELDS = new Set(['mount_limited', 'usable']);
+export const BOOLEAN_FIELDS = new Set(['mount_limited', 'usable', 'closing_probability_clamped']);
 
 export function stepRow(e: StepEvent, row: CsvCell[] = []): CsvCell[] {
   const s: StepBudget = e.step;

@@ -39,7 +39,7 @@ const POW10 = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
 const SCRATCH = new Uint8Array(64);
 const latin1 = (n: number) => Buffer.from(SCRATCH.buffer, SCRATCH.byteOffset, n).toString('latin1');
 
-/** `fmt(value, decimals)` (toFixed; '' for non-finite; no "-0"), fast for decimals 0–3. */
+/** `fmt(value, decimals)` (toFixed; '' for non-finite; no "-0"), fast for decimals 0–6. */
 export function fixedDecimal(value: number, decimals: number): string {
   const n = putFixed(SCRATCH, 0, value, decimals);
   return latin1(n);
@@ -102,7 +102,7 @@ function putBytes(b: Uint8Array, o: number, bytes: Uint8Array): number {
 
 /** `fixedDecimal(v, d)` as bytes: the same fast path and the same fallback (fmt), so the same characters. */
 export function putFixed(b: Uint8Array, o: number, value: number, decimals: number): number {
-  if (decimals <= 3) {
+  if (decimals <= 6) {
     const neg = value < 0;
     const x = (neg ? -value : value) * POW10[decimals];
     // NaN and ±Infinity fail this test too and take toFixed's own path.
@@ -126,8 +126,11 @@ export function putFixed(b: Uint8Array, o: number, value: number, decimals: numb
           return o + 3;
         }
         if (decimals === 2) { const r = q << 1; b[o] = DIG2[r]; b[o + 1] = DIG2[r + 1]; return o + 2; }
-        b[o] = ZERO + q;
-        return o + 1;
+        if (decimals === 1) { b[o] = ZERO + q; return o + 1; }
+        // 4–6 decimals (closing probabilities, Mb/s): q < 10^decimals, its digits zero-padded.
+        let r = q;
+        for (let k = o + decimals - 1; k >= o; k--) { const t = (r / 10) | 0; b[k] = ZERO + (r - t * 10); r = t; }
+        return o + decimals;
       }
     }
   }

@@ -57,16 +57,16 @@ export interface ParquetColumnSpec {
 }
 
 /**
- * |v| below which float32 keeps a value printed with d decimals: there the
- * float32 spacing is at most 2^-11 (d = 3), 2^-8, 2^-4, 1 (d = 0)... so the
- * float32 nearest the printed decimal lies within 2.5·10^-(d+1) of it and
- * prints back as the same decimal.
+ * |v| below which float32 keeps a value printed with d decimals (index d =
+ * 0…6): there the float32 spacing is at most ½·10^-d (2^-1 for d = 0, 2^-8
+ * for d = 2, 2^-11 for d = 3, 2^-21 for d = 6), so the float32 nearest the
+ * printed decimal lies within ¼·10^-d of it and prints back as the same decimal.
  */
-export const F32_LIMIT = [4_194_304, 524_288, 65_536, 8_192];
+export const F32_LIMIT = [4_194_304, 524_288, 65_536, 8_192, 512, 64, 8];
 
-/** Columns kept as DOUBLE: values that can pass F32_LIMIT (ranges to GEO, Doppler shifts, temperatures with the Sun, bit rates). */
+/** Columns kept as DOUBLE: values that can pass F32_LIMIT (ranges to GEO, Doppler shifts, temperatures with the Sun, bit rates in b/s and Mb/s). */
 function isDouble(field: string): boolean {
-  return field.endsWith('_km') || field === 'doppler_hz' || field.endsWith('_k') || field.endsWith('_bps');
+  return field.endsWith('_km') || field === 'doppler_hz' || field.endsWith('_k') || field.endsWith('_bps') || field.endsWith('_mbps');
 }
 
 function fieldSpec(field: string, name: string): ParquetColumnSpec {

@@ -171,7 +171,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     const passTable = new PassLinkTable(cases.map((c) => c.name));
     const full = o.onWindow !== undefined || o.onStep !== undefined;
     const part: ChunkPartial = {
-      satIndex: layout.satIndex, chunk, passes: [], passLinks: { weather: [], strings: [], n: 0, text: new Int32Array(0), times: new Float64Array(0), ints: new Int32Array(0), caseNums: new Float64Array(0), caseInts: new Int32Array(0) }, series: [], daily: [], mask: [], rate: [], envelope: [],
+      satIndex: layout.satIndex, chunk, passes: [], passLinks: { weather: [], strings: [], n: 0, text: new Int32Array(0), times: new Float64Array(0), ints: new Int32Array(0), caseNums: new Float64Array(0), caseInts: new Int32Array(0), weatherNums: new Float64Array(0) }, series: [], daily: [], mask: [], rate: [], envelope: [],
       stationSteps: 0, gridTimes: 0, linkSteps: 0, sgp4Calls: 0,
     };
     makeAccumulators();

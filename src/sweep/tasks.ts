@@ -51,7 +51,7 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   for (const r of p.rate) if (r) add(r.timeS);
   for (const e of p.envelope) add(e);
   const t = p.passLinks;
-  for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts]) out.add(a.buffer as ArrayBuffer);
+  for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts, t.weatherNums]) out.add(a.buffer as ArrayBuffer);
   if (p.whatIf) for (const a of [p.whatIf.parts, p.whatIf.elevation, p.whatIf.cn0]) out.add(a.buffer as ArrayBuffer);
   return [...out];
 }

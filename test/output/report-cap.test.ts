@@ -17,7 +17,7 @@ describe('report section cap', () => {
     const n = 10;
     const html = renderReport({ ...input, maxPassSections: n });
     expect((html.match(/<details class="pass"/g) ?? []).length).toBe(n);
-    const ids = [...html.matchAll(/<details class="pass" id="pass-(\d+)"><summary><strong>([^<]*)<\/strong> · ([^ ]*) ·/g)].map((m) => [Number(m[1]), m[2], m[3]]);
+    const ids = [...html.matchAll(/<details class="pass" id="pass-(\d+)"[^>]*><summary><strong>([^<]*)<\/strong> · ([^ ]*) ·/g)].map((m) => [Number(m[1]), m[2], m[3]]);
     expect(ids.map((x) => x[0]).sort((a, b) => Number(a) - Number(b))).toEqual(Array.from({ length: n }, (_, i) => i));
     for (const [i, passId, link] of ids) expect([passId, link]).toEqual([sorted[i as number].passId, sorted[i as number].link]);
     for (const link of input.summary.links) {

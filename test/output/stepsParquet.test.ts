@@ -52,7 +52,7 @@ describe('printedValue: the number steps.csv prints', () => {
     for (let i = 0; i < 50_000; i++) values.push((r() < 0.3 ? -1 : 1) * 10 ** (r() * 12 - 4));
     let mismatches = 0;
     for (const v of values) {
-      for (const d of [0, 1, 2, 3]) {
+      for (const d of [0, 1, 2, 3, 4, 5, 6]) {
         const t = fmt(v, d);
         const want = t === '' ? NaN : Number(t);
         const got = printedValue(v, d);
@@ -65,7 +65,7 @@ describe('printedValue: the number steps.csv prints', () => {
   it('survives float32 below F32_LIMIT: the nearest float32 prints back as the same decimal', () => {
     const r = rng(7);
     let mismatches = 0;
-    for (let d = 0; d <= 3; d++) {
+    for (let d = 0; d <= 6; d++) {
       for (let i = 0; i < 50_000; i++) {
         const v = (r() < 0.5 ? -1 : 1) * r() * F32_LIMIT[d];
         const t = fmt(v, d);

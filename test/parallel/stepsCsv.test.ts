@@ -36,10 +36,10 @@ describe('fixedDecimal equals fmt (toFixed)', () => {
     const edge = [0, -0, 0.5, 1.5, 2.5, -2.5, 1.0005, 1.0015, 2.675, 0.0005, -0.0005, -0.0004, 0.00049999, 1.005, 8.345,
       123.4565, 999.9995, 999999.9995, 1e6 - 0.0005, 999_999.9994, 1e9, 1e9 - 0.5, 4.35, 0.045, -1e-12, 1e21, -1e21,
       NaN, Infinity, -Infinity, Number.MAX_VALUE, Number.MIN_VALUE, 2 ** 53, -(2 ** 31)];
-    for (const v of edge) for (const d of [0, 1, 2, 3]) expect(fixedDecimal(v, d), `${v} to ${d}`).toBe(fmt(v, d));
+    for (const v of [...edge, 0.9999995, 0.0000005, 0.99999, 1e-7, 999.9999995]) for (const d of [0, 1, 2, 3, 4, 5, 6]) expect(fixedDecimal(v, d), `${v} to ${d}`).toBe(fmt(v, d));
     // The byte writer (putFixed) writes the same characters.
     const b = new Uint8Array(64);
-    for (const v of edge) for (const d of [0, 1, 2, 3]) expect(Buffer.from(b.subarray(0, putFixed(b, 0, v, d))).toString('latin1'), `${v} to ${d}`).toBe(fmt(v, d));
+    for (const v of edge) for (const d of [0, 1, 2, 3, 4, 5, 6]) expect(Buffer.from(b.subarray(0, putFixed(b, 0, v, d))).toString('latin1'), `${v} to ${d}`).toBe(fmt(v, d));
   });
   it('on 400 000 random values over the ranges steps.csv holds', () => {
     const r = rng(20261121);
@@ -50,6 +50,13 @@ describe('fixedDecimal equals fmt (toFixed)', () => {
       const v = (r() < 0.3 ? -1 : 1) * mag;
       // Values on a decimal grid hit toFixed's tie rule hardest.
       const grid = Math.round(v * 1e4) / 1e4;
+      // 6 decimals (closing probabilities, Mb/s): ties on a 1e-7 grid.
+      const grid7 = Math.round(v * 1e7) / 1e7;
+      for (const d of [4, 5, 6]) {
+        if (fixedDecimal(v, d) !== fmt(v, d)) mismatches++;
+        if (fixedDecimal(grid7, d) !== fmt(grid7, d)) mismatches++;
+        if (Buffer.from(buf.subarray(0, putFixed(buf, 0, grid7, d))).toString('latin1') !== fmt(grid7, d)) mismatches++;
+      }
       for (const d of [0, 1, 2, 3]) {
         if (fixedDecimal(v, d) !== fmt(v, d)) mismatches++;
         if (fixedDecimal(grid, d) !== fmt(grid, d)) mismatches++;

@@ -65,3 +65,25 @@ export function glance(rows: GlanceRow[], links: string[], required: Record<stri
 <tbody>${body}</tbody></table>
 <p class="small">Network figures count every station (see network counting above); margins are over every step of every pass of the link. A worst margin below the link's required margin is shown in red.</p></section>`;
 }
+
+/**
+ * Weather as a probability, per station link: the fixed cases' mean volume per day at that station beside the
+ * expected volume over an average year's weather, the availability and the passes per day expected to close throughout.
+ */
+export function weatherGlance(s: RunSummary): string {
+  const w = s.weatherProbability ?? [];
+  if (w.length === 0) return '';
+  const body = w.map((t) => {
+    const fixed = s.weatherCases.map((c) => {
+      const f = s.totals.find((x) => x.link === t.link && x.station === t.station && x.weather === c);
+      return `<td class="num">${h(formatBits(f ? f.dailyVolumeBits.mean : null))}</td>`;
+    }).join('');
+    return `<tr><td>${h(t.link)}</td><td>${h(t.station)}</td>${fixed}<td class="num"><strong>${h(formatBits(t.expectedVolumeBitsPerDay))}</strong></td>`
+      + `<td class="num">${formatFixed(100 * t.availabilityFraction, 2)}</td><td class="num">${formatFixed(t.expectedPassesClosingThroughoutPerDay, 2)}</td></tr>`;
+  }).join('');
+  const heads = s.weatherCases.map((c) => `<th class="num">per day, ${h(c)}</th>`).join('');
+  return `<section id="weather-probability"><h2>Weather as a probability</h2>
+<table class="glance"><thead><tr><th>link</th><th>station</th>${heads}<th class="num">per day, expected over the year's weather</th><th class="num">availability (% of in-view time)</th><th class="num">passes per day closing throughout</th></tr></thead>
+<tbody>${body}</tbody></table>
+<p class="small">Each step closes with probability 1 − p*/100, p* the percentage of an average year that the ITU-R P.618-13 total attenuation exceeds what its margin absorbs (0.001–5 %; clamped outside, see steps.csv closing_probability_clamped). A pass is taken to see one weather state throughout. Averages over the year's statistics, not a forecast.</p></section>`;
+}

@@ -5,7 +5,7 @@
  */
 import { escapeHtml as h } from './escape.js';
 import { decimateSeries } from './decimate.js';
-import { glance, glanceRows } from './glance.js';
+import { glance, glanceRows, weatherGlance } from './glance.js';
 import { header } from './header.js';
 import { linkSection } from './linkSection.js';
 import { pageShell } from './page.js';
@@ -71,6 +71,7 @@ export function renderReport(input: ReportInput): string {
     header(s, title, input.generatedNote),
     nav,
     glance(glanceRows(s, passes, input.daily), links, input.requiredMarginDB),
+    weatherGlance(s),
     whatIfSection(input.whatIf, maxSections),
     ...links.map((link, i) => linkSection({
       link,
