@@ -28,6 +28,8 @@ export interface CaseColumns {
   /** Adaptive: index of the mode chosen in the link's mode table, −1 when none fits; fixed: −1. */
   mode: Int16Array;
   informationRateBps: Float64Array;
+  /** C/N0 lost to the Sun's noise (dB, ≥ 0). */
+  sunLossDB: Float64Array;
 }
 
 export interface LinkColumns {
@@ -48,6 +50,10 @@ export interface LinkColumns {
   dopplerRateHzS: Float64Array;
   /** Elevation the atmospheric terms were taken at (apparent, clamped to 0–90°). */
   atmosphericElevationDeg: Float64Array;
+  elementAgeDays: Float64Array;
+  elementPointingErrorDeg: Float64Array;
+  sunSeparationDeg: Float64Array;
+  sunNoiseK: Float64Array;
   /** Constant per link. */
   polarisationLossDB: number;
   otherLossesDB: number;
@@ -59,7 +65,7 @@ function caseColumns(n: number): CaseColumns {
   return {
     gasDB: f(), rainDB: f(), cloudDB: f(), scintillationDB: f(), atmosphericDB: f(), antennaTemperatureK: f(),
     systemTemperatureK: f(), gOverTDBK: f(), cOverN0DBHz: f(), ebN0DB: f(), esN0DB: f(), requiredEbN0DB: f(),
-    marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f(),
+    marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f(), sunLossDB: f(),
   };
 }
 
@@ -70,6 +76,7 @@ export function createLinkColumns(capacity: number, caseCount: number): LinkColu
     txOffBoresightDeg: f(), rxOffBoresightDeg: f(), txGainDBi: f(), rxGainDBi: f(), eirpDBW: f(), freeSpaceLossDB: f(),
     txPointingLossDB: f(), rxPointingLossDB: f(), mountLagDeg: f(), mountLimited: new Uint8Array(capacity),
     dopplerHz: f(), dopplerRateHzS: f(), atmosphericElevationDeg: f(),
+    elementAgeDays: f(), elementPointingErrorDeg: f(), sunSeparationDeg: f(), sunNoiseK: f(),
     polarisationLossDB: NaN, otherLossesDB: NaN,
     cases: Array.from({ length: caseCount }, () => caseColumns(capacity)),
   };
@@ -97,6 +104,10 @@ export function readStep(stn: StationColumns, c: LinkColumns, i: number, timeS: 
   out.mount_limited = c.mountLimited[i] === 1;
   out.doppler_hz = c.dopplerHz[i];
   out.doppler_rate_hz_s = c.dopplerRateHzS[i];
+  out.element_age_days = c.elementAgeDays[i];
+  out.element_pointing_error_deg = c.elementPointingErrorDeg[i];
+  out.sun_separation_deg = c.sunSeparationDeg[i];
+  out.sun_noise_temperature_k = c.sunNoiseK[i];
   for (let k = 0; k < out.cases.length; k++) {
     const s = c.cases[k];
     const o = out.cases[k];
@@ -117,6 +128,7 @@ export function readStep(stn: StationColumns, c: LinkColumns, i: number, timeS: 
     const m = s.mode[i];
     o.mode = m >= 0 && o.usable ? modeNames[m] : '';
     o.information_rate_bps = s.informationRateBps[i];
+    o.sun_loss_db = s.sunLossDB[i];
   }
   return out;
 }

@@ -40,12 +40,10 @@ export function elementErrorKm(a: ElementErrorRates & { ageDays: number }): { al
  */
 export function elementPointingErrorDeg(a: {
   alongTrackKm: number; crossTrackKm: number; rangeKm: number;
-  los: readonly number[]; positionKm: readonly number[]; velocityKmS: readonly number[];
+  los: ArrayLike<number>; positionKm: ArrayLike<number>; velocityKmS: ArrayLike<number>;
 }): number {
-  const [lx, ly, lz] = a.los;
-  const [rx, ry, rz] = a.positionKm;
-  const [vx, vy, vz] = a.velocityKmS;
-  return pointingKernel(a.alongTrackKm, a.crossTrackKm, a.rangeKm, lx, ly, lz, rx, ry, rz, vx, vy, vz);
+  const l = a.los, r = a.positionKm, v = a.velocityKmS;
+  return pointingKernel(a.alongTrackKm, a.crossTrackKm, a.rangeKm, l[0], l[1], l[2], r[0], r[1], r[2], v[0], v[1], v[2]);
 }
 
 function pointingKernel(ea: number, ec: number, range: number, lx: number, ly: number, lz: number,
@@ -85,9 +83,9 @@ const B_KM = 6356.752314245;
  * ellipsoid, the Earth-fixed velocity's horizontal part scaled from the
  * satellite's radius to the geocentric radius of the WGS-84 ellipsoid below it.
  */
-export function groundTrackSpeedKmS(a: { positionEcefKm: readonly number[]; velocityEcefKmS: readonly number[] }): number {
-  const [x, y, z] = a.positionEcefKm;
-  const [vx, vy, vz] = a.velocityEcefKmS;
+export function groundTrackSpeedKmS(a: { positionEcefKm: ArrayLike<number>; velocityEcefKmS: ArrayLike<number> }): number {
+  const p = a.positionEcefKm, v = a.velocityEcefKmS;
+  const x = p[0], y = p[1], z = p[2], vx = v[0], vy = v[1], vz = v[2];
   const r = Math.sqrt(x * x + y * y + z * z);
   const vr = (x * vx + y * vy + z * vz) / r;
   const vh = Math.sqrt(Math.max(0, vx * vx + vy * vy + vz * vz - vr * vr));

@@ -165,6 +165,8 @@ const STEP_SOURCE: Record<string, string> = {
   free_space_loss_db: 'c.freeSpaceLossDB[i]', polarisation_loss_db: 'c.polarisationLossDB', tx_pointing_loss_db: 'c.txPointingLossDB[i]',
   rx_pointing_loss_db: 'c.rxPointingLossDB[i]', other_losses_db: 'c.otherLossesDB', mount_lag_deg: 'c.mountLagDeg[i]',
   mount_limited: 'c.mountLimited[i]', doppler_hz: 'c.dopplerHz[i]', doppler_rate_hz_s: 'c.dopplerRateHzS[i]',
+  element_age_days: 'c.elementAgeDays[i]', element_pointing_error_deg: 'c.elementPointingErrorDeg[i]',
+  sun_separation_deg: 'c.sunSeparationDeg[i]', sun_noise_temperature_k: 'c.sunNoiseK[i]',
 };
 const CASE_SOURCE: Record<string, string> = {
   gas_loss_db: 'k.gasDB[i]', rain_loss_db: 'k.rainDB[i]', cloud_loss_db: 'k.cloudDB[i]', scintillation_db: 'k.scintillationDB[i]',
