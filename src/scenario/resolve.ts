@@ -178,7 +178,7 @@ export function resolveScenarioInput(
       if (ee[k] === undefined) {
         ctx.recordDefault({
           path: formatPath([...at, 'element_error', k]), value: String(ELEMENT_ERROR_DEFAULTS[k]),
-          reason: 'SGP4 error of a general-perturbations element set: about 1 km at epoch, along-track growth 1–3 km/day in LEO, cross-track far slower (from memory, rough; set your own from orbit-determination comparisons)',
+          reason: 'SGP4 error of a general-perturbations element set: about 1 km at epoch, along-track growth 1–3 km/day in LEO, cross-track far slower (from memory), rough; set your own from orbit-determination comparisons)',
         });
       }
     }
@@ -270,7 +270,7 @@ export function resolveScenarioInput(
   const sunNoise = input.sun?.noise ?? true;
   if (input.sun?.noise === undefined) ctx.recordDefault({ path: 'sun.noise', value: 'true', reason: 'Sun noise added when the Sun is in a tracking ground antenna\'s beam on a downlink' });
   if (sunNoise && input.sun?.activity_factor === undefined) {
-    ctx.recordDefault({ path: 'sun.activity_factor', value: '1', reason: 'quiet Sun; brightness against frequency from memory, rough (raise it for an active Sun)' });
+    ctx.recordDefault({ path: 'sun.activity_factor', value: '1', reason: 'quiet Sun; brightness against frequency (from memory), rough (raise it for an active Sun)' });
   }
   const sun = sunNoise ? { activityFactor: input.sun?.activity_factor ?? 1 } : null;
 
