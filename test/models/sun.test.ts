@@ -26,6 +26,10 @@ describe('solarPosition (Astronomical Almanac low-precision formula; from memory
     }
     expect(Math.abs(maxT - Date.UTC(2026, 5, 21, 8, 24) / 1000)).toBeLessThan(86_400);
   });
+  it('is the library export of that name', async () => {
+    const lib = await import('../../src/index.js');
+    expect(lib.solarPosition).toBe(solarPosition);
+  });
   it('the unit vector is (cos δ cos α, cos δ sin α, sin δ) and the range is checked', () => {
     const t = Date.UTC(2026, 10, 21) / 1000;
     const p = solarPosition(t);
