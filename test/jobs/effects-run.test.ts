@@ -11,7 +11,9 @@ import { runPipeline } from '../../src/sweep/pipeline.js';
 import { elementAges, withElementAge } from '../../src/jobs/age.js';
 import { sunWarning } from '../../src/jobs/run.js';
 import type { ResolvedScenario } from '../../src/scenario/types.js';
-import { removeTempDirs, tempDir, writeDemoCopy } from './helpers.js';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { removeTempDirs, runCli, tempDir, writeDemoCopy } from './helpers.js';
 
 afterAll(removeTempDirs);
 const scenario = loadScenario(writeDemoCopy(tempDir('effects'), '1d'));
@@ -92,5 +94,19 @@ describe('the Sun warning line', () => {
     const fake = { ...rows[0], sunAffected: true, maxSunLossDB: 4.2, minSunSeparationDeg: 0.1, cases: rows[0].cases.map((c) => ({ ...c, sunLostS: 12 })) };
     expect(sunWarning([fake])).toContain('worst 4.2 dB');
     expect(sunWarning([fake])).toContain('12 s unusable');
+  });
+});
+
+describe('passbudget age, bad input', () => {
+  it('stops with one line and exit code 2 before any file is written', async () => {
+    const dir = tempDir('age-bad');
+    const file = writeDemoCopy(dir, '1d');
+    for (const args of [['--max-days', 'abc'], ['--max-days', '100'], ['--step-days', '0']]) {
+      const r = await runCli(['age', file, '--out', path.join(dir, 'out'), ...args]);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      expect(r.stderr).toMatch(/--(max|step)-days/);
+    }
+    expect(existsSync(path.join(dir, 'out'))).toBe(false);
   });
 });
