@@ -52,6 +52,8 @@ export interface Effects {
   sunReachDeg: number;
   notes: string[];
   fill(sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, out: LinkColumns): void;
+  /** Forget the shared columns (the next fill computes them): for callers that refill the same columns with other geometry at the same times. */
+  invalidate(): void;
   /** Add the Sun's noise to one weather case (its T_A and T_sys columns hold the table's values): G/T and the C/N0 lost. */
   sunCase(c: CaseColumns, n: number): void;
 }
@@ -63,6 +65,76 @@ export interface EffectsOptions {
   sun?: SunNoiseSpec;
   /** Feed loss between the antenna and the LNA (dB): the share 10^(−L/10) of the antenna's noise that reaches T_sys. */
   rxFeedLossDB: number;
+  /**
+   * Shared by the engines of one satellite (same element error and Sun
+   * settings): the link-independent columns are computed once per station
+   * and run of steps, the other links of the station copy them.
+   */
+  share?: EffectsShare;
+}
+
+/** The link-independent columns of the last run of steps, and what they were computed for. */
+export interface EffectsShare {
+  stn: StationColumns | null;
+  originS: number; k: number; stepS: number; n: number;
+  age: Float64Array; err: Float64Array; sep: Float64Array;
+  along: Float64Array; cross: Float64Array; nodes: Float64Array;
+}
+
+export function createEffectsShare(): EffectsShare {
+  const z = () => new Float64Array(0);
+  return { stn: null, originS: NaN, k: NaN, stepS: NaN, n: 0, age: z(), err: z(), sep: z(), along: z(), cross: z(), nodes: z() };
+}
+
+/**
+ * Element age and pointing error (with `ee`) and the Sun's separation from a
+ * boresight on the satellite (with `sun`) over a run of steps, into the
+ * share, unless it already holds them for these station columns and times.
+ */
+function sharedColumns(sh: EffectsShare, sat: SatelliteColumns, satFrom: number, stn: StationColumns, n: number, ee: ElementErrorSpec | undefined, sun: boolean): void {
+  const k = sat.k0 + satFrom;
+  if (sh.stn === stn && sh.originS === sat.originS && sh.k === k && sh.stepS === sat.stepS && sh.n === n) return;
+  sh.stn = stn; sh.originS = sat.originS; sh.k = k; sh.stepS = sat.stepS; sh.n = n;
+  if (sh.age.length < n) {
+    const c = Math.max(n, 2 * sh.age.length);
+    sh.age = new Float64Array(c); sh.err = new Float64Array(c); sh.sep = new Float64Array(c); sh.along = new Float64Array(c); sh.cross = new Float64Array(c);
+  }
+  const t0 = sat.originS + k * sat.stepS, dt = sat.stepS;
+  const { age, err, sep, along, cross } = sh;
+  if (ee) {
+    const fixed = ee.ageDays;
+    const e0 = ee.atEpochKm, ra = ee.alongTrackKmPerDay, rc = ee.crossTrackKmPerDay;
+    for (let i = 0; i < n; i++) {
+      const g = fixed ?? (t0 + i * dt - ee.epochS) / 86_400;
+      age[i] = g;
+      const a = Math.abs(g);
+      along[i] = e0 + ra * a; cross[i] = e0 + rc * a;
+    }
+    const s = sat.teme;
+    elementPointingErrorColumnDeg(s.rx, s.ry, s.rz, s.vx, s.vy, s.vz, satFrom, stn.losX, stn.losY, stn.losZ, stn.rangeKm, along, cross, n, err);
+  }
+  if (!sun) return;
+  const span = (n - 1) * dt;
+  const m = span > 0 ? Math.ceil(span / SUN_NODE_SPACING_S) : 0;
+  if (sh.nodes.length < 3 * (m + 1)) sh.nodes = new Float64Array(3 * (m + 1));
+  const nd = sh.nodes;
+  for (let q = 0; q <= m; q++) sunDirection(m === 0 ? t0 : t0 + (q * span) / m, nd, 3 * q);
+  const lx = stn.losX, ly = stn.losY, lz = stn.losZ;
+  for (let i = 0; i < n; i++) {
+    let sx: number, sy: number, sz: number;
+    if (m === 0) { sx = nd[0]; sy = nd[1]; sz = nd[2]; } else {
+      const u = ((i * dt) / span) * m;
+      const q = u >= m ? m - 1 : Math.floor(u);
+      const w = u - q, a = 3 * q;
+      sx = nd[a] + w * (nd[a + 3] - nd[a]); sy = nd[a + 1] + w * (nd[a + 4] - nd[a + 1]); sz = nd[a + 2] + w * (nd[a + 5] - nd[a + 2]);
+      const norm = Math.sqrt(sx * sx + sy * sy + sz * sz);
+      sx /= norm; sy /= norm; sz /= norm;
+    }
+    // Boresight = station → satellite = −(spacecraft → station).
+    let c = -(lx[i] * sx + ly[i] * sy + lz[i] * sz);
+    if (c > 1) c = 1; else if (c < -1) c = -1;
+    sep[i] = Math.acos(c) / DEG;
+  }
 }
 
 /** Disc-weighted pattern (1/4π)∫disc (G − G_floor) dΩ against separation, on a uniform grid up to the reach. */
@@ -106,58 +178,32 @@ export function createEffects(o: EffectsOptions): Effects {
   }
   const feed = 10 ** (-o.rxFeedLossDB / 10);
   let noiseCol: Float64Array = new Float64Array(0);
-  const scratch = { cap: 0, along: new Float64Array(0), cross: new Float64Array(0), nodes: new Float64Array(0) };
+  const own = createEffectsShare();
+  const share = o.share ?? own;
   const self: Effects = {
     elementErrorActive: active, pointingDeg: new Float64Array(0), pointingAny: false, sunInRun: false,
     sunBrightnessK: brightness, sunReachDeg: table.reachDeg, notes,
     fill(sat, satFrom, stn, n, out) {
-      if (n > scratch.cap) { scratch.cap = n; scratch.along = new Float64Array(n); scratch.cross = new Float64Array(n); }
-      const t0 = sat.originS + (sat.k0 + satFrom) * sat.stepS, dt = sat.stepS;
-      const age = out.elementAgeDays, err = out.elementPointingErrorDeg;
+      const age = out.elementAgeDays, err = out.elementPointingErrorDeg, sep = out.sunSeparationDeg, noise = out.sunNoiseK;
       self.pointingDeg = err;
-      noiseCol = out.sunNoiseK;
-      // Element age and error.
-      if (ee) {
-        const fixed = ee.ageDays;
-        for (let i = 0; i < n; i++) age[i] = fixed ?? (t0 + i * dt - ee.epochS) / 86_400;
-      } else age.fill(NaN, 0, n);
+      noiseCol = noise;
+      // The link-independent part (age, element pointing error, Sun separation), once per station and run of steps.
+      sharedColumns(share, sat, satFrom, stn, n, ee, o.sun !== undefined);
+      if (ee) age.set(share.age.subarray(0, n)); else age.fill(NaN, 0, n);
       self.pointingAny = false;
-      if (active && ee) {
-        const { along, cross } = scratch;
-        const e0 = ee.atEpochKm, ra = ee.alongTrackKmPerDay, rc = ee.crossTrackKmPerDay;
-        for (let i = 0; i < n; i++) { const a = Math.abs(age[i]); along[i] = e0 + ra * a; cross[i] = e0 + rc * a; }
-        const s = sat.teme;
-        elementPointingErrorColumnDeg(s.rx, s.ry, s.rz, s.vx, s.vy, s.vz, satFrom, stn.losX, stn.losY, stn.losZ, stn.rangeKm, along, cross, n, err);
+      if (active) {
+        err.set(share.err.subarray(0, n));
         for (let i = 0; i < n; i++) if (err[i] !== 0) { self.pointingAny = true; break; }
       } else err.fill(0, 0, n);
-      // The Sun.
-      const sep = out.sunSeparationDeg, noise = out.sunNoiseK;
       self.sunInRun = false;
       if (!sunModelled) { sep.fill(NaN, 0, n); noise.fill(0, 0, n); return; }
-      const span = (n - 1) * dt;
-      const m = span > 0 ? Math.ceil(span / SUN_NODE_SPACING_S) : 0;
-      if (scratch.nodes.length < 3 * (m + 1)) scratch.nodes = new Float64Array(3 * (m + 1));
-      const nd = scratch.nodes;
-      for (let q = 0; q <= m; q++) sunDirection(m === 0 ? t0 : t0 + (q * span) / m, nd, 3 * q);
-      const lx = stn.losX, ly = stn.losY, lz = stn.losZ;
+      sep.set(share.sep.subarray(0, n));
+      if (!sunNoise) { noise.fill(0, 0, n); return; }
       const reach = table.reachDeg, tstep = table.stepDeg, vals = table.values, tb = brightness * 1;
       for (let i = 0; i < n; i++) {
-        let sx: number, sy: number, sz: number;
-        if (m === 0) { sx = nd[0]; sy = nd[1]; sz = nd[2]; } else {
-          const u = ((i * dt) / span) * m;
-          const q = u >= m ? m - 1 : Math.floor(u);
-          const w = u - q, a = 3 * q;
-          sx = nd[a] + w * (nd[a + 3] - nd[a]); sy = nd[a + 1] + w * (nd[a + 4] - nd[a + 1]); sz = nd[a + 2] + w * (nd[a + 5] - nd[a + 2]);
-          const norm = Math.sqrt(sx * sx + sy * sy + sz * sz);
-          sx /= norm; sy /= norm; sz /= norm;
-        }
-        // Boresight = station → satellite = −(spacecraft → station).
-        let c = -(lx[i] * sx + ly[i] * sy + lz[i] * sz);
-        if (c > 1) c = 1; else if (c < -1) c = -1;
-        const d = Math.acos(c) / DEG;
-        sep[i] = d;
+        const d = sep[i];
         let add = 0;
-        if (sunNoise && d < reach) {
+        if (d < reach) {
           const u = d / tstep;
           const j = Math.floor(u);
           add = tb * (vals[j] + (u - j) * (vals[j + 1] - vals[j]));
@@ -166,6 +212,7 @@ export function createEffects(o: EffectsOptions): Effects {
         noise[i] = add;
       }
     },
+    invalidate() { share.stn = null; },
     sunCase(c, n) {
       const loss = c.sunLossDB;
       if (!self.sunInRun) { loss.fill(0, 0, n); return; }

@@ -45,7 +45,7 @@ import { createLinkColumns, readStep, type CaseColumns, type LinkColumns } from 
 import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
 import type { AdaptiveMode, CaseBudget, Climate, ElementErrorSpec, LinkSpec, StepBudget, SunNoiseSpec, WeatherCase } from './types.js';
-import { createEffects } from './effects.js';
+import { createEffects, type EffectsShare } from './effects.js';
 
 export interface LinkEngineOptions {
   link: LinkSpec;
@@ -62,6 +62,8 @@ export interface LinkEngineOptions {
   elementError?: ElementErrorSpec;
   /** Noise from the Sun in the ground antenna's beam (none when absent). */
   sun?: SunNoiseSpec;
+  /** Shared by the engines of one satellite: the link-independent effect columns computed once per station and run of steps. */
+  effectsShare?: EffectsShare;
 }
 
 /** Intermediate values of the last evaluated step (for explain; overwritten each step). */
@@ -262,7 +264,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   const modeReq = Float64Array.from(modes, (m) => m.requiredEsN0DB);
   // Element age and its pointing error, the Sun's separation and noise (effects.ts), per step into their columns.
   const effects = createEffects({
-    link, groundAntenna: gndAnt, elementError: options.elementError, sun: options.sun, rxFeedLossDB: ctx.rxFeedLossDB,
+    link, groundAntenna: gndAnt, elementError: options.elementError, sun: options.sun, rxFeedLossDB: ctx.rxFeedLossDB, share: options.effectsShare,
   });
   const scTracksElements = effects.elementErrorActive && scPointing.kind === 'tracking';
   notes.push(...effects.notes);
@@ -469,6 +471,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     stn1.rangeKm[0] = s.rangeKm; stn1.rangeRateKmS[0] = s.rangeRateKmS; stn1.rangeAccelKmS2[0] = s.rangeAccelKmS2;
     const u = lineOfSightTeme(s);
     stn1.losX[0] = u[0]; stn1.losY[0] = u[1]; stn1.losZ[0] = u[2];
+    effects.invalidate(); // one-entry columns refilled each call: never reuse the shared effect columns
     evaluateColumns(sat1, 0, stn1, 1, cols1, true);
     readStep(stn1, cols1, 0, s.timeS, modeNames, out);
     detail.atmosphericElevationDeg = cols1.atmosphericElevationDeg[0];

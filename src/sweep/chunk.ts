@@ -20,6 +20,7 @@ import type { LinkColumns } from '../budget/linkColumns.js';
 import { createLinkColumns, readStep } from '../budget/linkColumns.js';
 import type { ElevationTable } from '../budget/atmosphere.js';
 import { createLinkEngine, createStepBudget, type LinkEngine } from '../budget/engine.js';
+import { createEffectsShare } from '../budget/effects.js';
 import type { LinkSpec, WeatherCase } from '../budget/types.js';
 import {
   createSatelliteColumns, createStationColumns, satelliteEarthFixed, stationLook, type StationColumns,
@@ -124,11 +125,12 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   const sat = scenario.satellites[layout.satIndex];
   const satOrbit = orbit ?? createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
   const engines: LinkEngine[] = [];
+  const effectsShare = createEffectsShare();
   const stations: StationRun[] = layout.stations.map((st) => {
     const links: LinkRun[] = st.links.map((link) => {
       const engine = createLinkEngine({
         link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length],
-        elementError: sat.elementError, sun: scenario.sun ?? undefined,
+        elementError: sat.elementError, sun: scenario.sun ?? undefined, effectsShare,
       });
       engines.push(engine);
       // Accumulators (made at the first chunk) live as long as the sweeper; each chunk takes (and empties) its share.
