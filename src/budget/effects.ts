@@ -16,6 +16,8 @@
  *   mount lag, a fraction of a degree at most, is not added to the
  *   separation); a fixed ground antenna's Sun separation is not modelled
  *   (NaN, no noise).
+ * - A Sun below the station's horizon (geocentric, within 0.2° of the
+ *   geodetic one) adds nothing: the Earth hides it from a broad beam.
  * - Only downlinks get Sun noise: on an uplink the spacecraft's receiver
  *   looks at the station with the Earth behind it.
  * - The disc (0.533°) is weighted by the ground pattern above its floor: Sun
@@ -78,12 +80,14 @@ export interface EffectsShare {
   stn: StationColumns | null;
   originS: number; k: number; stepS: number; n: number;
   age: Float64Array; err: Float64Array; sep: Float64Array;
+  /** 1 where the Sun is below the station's (geocentric) horizon: the Earth hides it. */
+  sunHidden: Uint8Array;
   along: Float64Array; cross: Float64Array; nodes: Float64Array;
 }
 
 export function createEffectsShare(): EffectsShare {
   const z = () => new Float64Array(0);
-  return { stn: null, originS: NaN, k: NaN, stepS: NaN, n: 0, age: z(), err: z(), sep: z(), along: z(), cross: z(), nodes: z() };
+  return { stn: null, originS: NaN, k: NaN, stepS: NaN, n: 0, age: z(), err: z(), sep: z(), sunHidden: new Uint8Array(0), along: z(), cross: z(), nodes: z() };
 }
 
 /**
@@ -98,6 +102,7 @@ function sharedColumns(sh: EffectsShare, sat: SatelliteColumns, satFrom: number,
   if (sh.age.length < n) {
     const c = Math.max(n, 2 * sh.age.length);
     sh.age = new Float64Array(c); sh.err = new Float64Array(c); sh.sep = new Float64Array(c); sh.along = new Float64Array(c); sh.cross = new Float64Array(c);
+    sh.sunHidden = new Uint8Array(c);
   }
   const t0 = sat.originS + k * sat.stepS, dt = sat.stepS;
   const { age, err, sep, along, cross } = sh;
@@ -119,7 +124,8 @@ function sharedColumns(sh: EffectsShare, sat: SatelliteColumns, satFrom: number,
   if (sh.nodes.length < 3 * (m + 1)) sh.nodes = new Float64Array(3 * (m + 1));
   const nd = sh.nodes;
   for (let q = 0; q <= m; q++) sunDirection(m === 0 ? t0 : t0 + (q * span) / m, nd, 3 * q);
-  const lx = stn.losX, ly = stn.losY, lz = stn.losZ;
+  const lx = stn.losX, ly = stn.losY, lz = stn.losZ, range = stn.rangeKm, hidden = sh.sunHidden;
+  const rx = sat.teme.rx, ry = sat.teme.ry, rz = sat.teme.rz;
   for (let i = 0; i < n; i++) {
     let sx: number, sy: number, sz: number;
     if (m === 0) { sx = nd[0]; sy = nd[1]; sz = nd[2]; } else {
@@ -134,6 +140,10 @@ function sharedColumns(sh: EffectsShare, sat: SatelliteColumns, satFrom: number,
     let c = -(lx[i] * sx + ly[i] * sy + lz[i] * sz);
     if (c > 1) c = 1; else if (c < -1) c = -1;
     sep[i] = Math.acos(c) / DEG;
+    // Station = satellite + range × (spacecraft → station); its geocentric up against the Sun (≤ 0.2° from the geodetic one).
+    const j = satFrom + i, d = range[i];
+    const px = rx[j] + d * lx[i], py = ry[j] + d * ly[i], pz = rz[j] + d * lz[i];
+    hidden[i] = px * sx + py * sy + pz * sz < 0 ? 1 : 0;
   }
 }
 
@@ -199,11 +209,11 @@ export function createEffects(o: EffectsOptions): Effects {
       if (!sunModelled) { sep.fill(NaN, 0, n); noise.fill(0, 0, n); return; }
       sep.set(share.sep.subarray(0, n));
       if (!sunNoise) { noise.fill(0, 0, n); return; }
-      const reach = table.reachDeg, tstep = table.stepDeg, vals = table.values, tb = brightness * 1;
+      const reach = table.reachDeg, tstep = table.stepDeg, vals = table.values, tb = brightness * 1, hidden = share.sunHidden;
       for (let i = 0; i < n; i++) {
         const d = sep[i];
         let add = 0;
-        if (d < reach) {
+        if (d < reach && hidden[i] === 0) {
           const u = d / tstep;
           const j = Math.floor(u);
           add = tb * (vals[j] + (u - j) * (vals[j + 1] - vals[j]));

@@ -128,6 +128,17 @@ describe('the Sun in the beam (constructed pass through the Sun)', () => {
       sameExcept(a, b, ['sun_separation_deg']);
     }
   });
+  it('a Sun below the station\'s horizon adds nothing (the Earth hides it), though the boresight points its way', () => {
+    // 2026-09-23T12:00Z: near the September equinox the Sun is near −x, below the horizon of the station at (R, 0, 0).
+    const t = Date.UTC(2026, 8, 23, 12) / 1000;
+    const s2 = new Float64Array(3);
+    sunDirection(t, s2);
+    const r = [R_KM + 800 * s2[0], 800 * s2[1], 800 * s2[2]];
+    const step = withSun().evaluate(sampleFromVectors(r, [0, 7, 0], t), createStepBudget(CASES));
+    expect(step.elevation_deg).toBeLessThan(-80);
+    expect(step.sun_separation_deg).toBeLessThan(0.01);
+    expect(step.sun_noise_temperature_k).toBe(0);
+  });
   it('an uplink gets no Sun noise (the spacecraft looks at the Earth) and the activity factor scales it', () => {
     const up = createLinkEngine({
       link: baseLink({ direction: 'uplink', ground: { ...baseLink().ground, txPowerDBW: 10 }, spacecraft: { ...baseLink().spacecraft, receiver: baseLink().ground.receiver } }),
