@@ -18,7 +18,11 @@ import { checkVerdictRule, DEFAULT_VERDICT_RULE, judgePass, type VerdictRule } f
 
 /** The pass a summary is about: the pass fields of PassLinkSummary (durationS, time above the mask, is the verdict's reference). */
 export type PassInfo = Pick<PassLinkSummary,
-  'passId' | 'satellite' | 'station' | 'aosS' | 'tcaS' | 'losS' | 'maxElevationDeg' | 'durationS' | 'clippedStart' | 'clippedEnd'>;
+  'passId' | 'satellite' | 'station' | 'aosS' | 'tcaS' | 'losS' | 'maxElevationDeg' | 'durationS' | 'clippedStart' | 'clippedEnd'>
+  & Partial<Pick<PassLinkSummary, 'timingUncertaintyS'>>;
+
+/** C/N0 the Sun must take at some step (dB) for a pass to count as Sun-affected (our choice: a tenth of a dB shows in a budget). */
+export const SUN_AFFECTED_DB = 0.1;
 
 export interface PassAccumulatorOptions {
   link: LinkSpec;
@@ -42,7 +46,7 @@ export interface PassAccumulator {
 }
 
 /** The case columns the summary reads. */
-type OneCase = Pick<LinkColumns['cases'][number], 'marginDB' | 'usable' | 'informationRateBps' | 'esN0DB'>;
+type OneCase = Pick<LinkColumns['cases'][number], 'marginDB' | 'usable' | 'informationRateBps' | 'esN0DB' | 'sunLossDB'>;
 
 interface CaseState {
   weather: string;
@@ -58,6 +62,8 @@ interface CaseState {
   marginSteps: number;
   marginTimeS: number;
   adaptiveBits: number;
+  sunLostS: number;
+  maxSunLossDB: number;
   /** Time per rank (number of mode thresholds ≤ Es/N0), see ModeFit. */
   fit: ModeFit;
 }
@@ -91,13 +97,17 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
     marginSteps: 0,
     marginTimeS: 0,
     adaptiveBits: 0,
+    sunLostS: 0,
+    maxSunLossDB: 0,
     fit: createModeFit(thresholds),
   }));
+  const requiredMarginDB = link.requiredMarginDB;
+  let minSunSepDeg = NaN;
   let steps = 0;
   let lastTimeS = -Infinity;
   // Weather as a probability: expected bits, expected usable time, swept time, least probability of the clear-sky-closing steps.
   let wBits = 0, wUsableS = 0, wSweptS = 0, wMinProb = Infinity;
-  const one: OneCase = { marginDB: new Float64Array(1), usable: new Uint8Array(1), informationRateBps: new Float64Array(1), esN0DB: new Float64Array(1) };
+  const one: OneCase = { marginDB: new Float64Array(1), usable: new Uint8Array(1), informationRateBps: new Float64Array(1), esN0DB: new Float64Array(1), sunLossDB: new Float64Array(1) };
   let finished = false;
 
   /**
@@ -131,6 +141,21 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
     s.minMarginDB = min; s.maxMarginDB = max; s.marginTimeSum = mts; s.marginTimeS = mt; s.marginSum = ms; s.marginSteps = mn;
     s.usableS = us; s.adaptiveBits = bits;
     if (adaptive) for (let i = from; i < to; i++) s.fit.add(es[i], dtS);
+    const sun = c.sunLossDB;
+    let lost = 0, maxLoss = s.maxSunLossDB * 1;
+    for (let i = from; i < to; i++) {
+      const l = sun[i];
+      if (l === 0) continue;
+      if (l > maxLoss) maxLoss = l;
+      if (usable[i] === 0 && margin[i] + l >= requiredMarginDB) lost += dtS;
+    }
+    s.sunLostS += lost; s.maxSunLossDB = maxLoss;
+  }
+
+  function sunSeparation(sep: ArrayLike<number>, from: number, to: number): void {
+    let m = minSunSepDeg;
+    for (let i = from; i < to; i++) { const x = sep[i]; if (x < m || (m !== m && x === x)) m = x; }
+    minSunSepDeg = m;
   }
 
   /** The weather-probability sums over entries [from, to) (probability; expected rate in Mb/s). */
@@ -157,21 +182,23 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
       pass = next;
       for (const s of states) {
         s.usableStartS = null; s.usableEndS = null; s.usableS = 0; s.minMarginDB = Infinity; s.maxMarginDB = -Infinity;
-        s.marginTimeSum = 0; s.marginSum = 0; s.marginSteps = 0; s.marginTimeS = 0; s.adaptiveBits = 0;
+        s.marginTimeSum = 0; s.marginSum = 0; s.marginSteps = 0; s.marginTimeS = 0; s.adaptiveBits = 0; s.sunLostS = 0; s.maxSunLossDB = 0;
         s.fit.clear();
       }
       steps = 0;
       lastTimeS = -Infinity;
       finished = false;
       wBits = 0; wUsableS = 0; wSweptS = 0; wMinProb = Infinity;
+      minSunSepDeg = NaN;
     },
     add(timeS, dtS, _elevationDeg, step) {
       checkTime(timeS);
       lastTimeS = timeS;
       steps++;
+      sunSeparation([step.sun_separation_deg ?? NaN], 0, 1);
       for (const s of states) {
         const c = findCase(step, s);
-        one.marginDB[0] = c.margin_db; one.usable[0] = c.usable ? 1 : 0; one.informationRateBps[0] = c.information_rate_bps; one.esN0DB[0] = c.es_over_n0_db;
+        one.marginDB[0] = c.margin_db; one.usable[0] = c.usable ? 1 : 0; one.informationRateBps[0] = c.information_rate_bps; one.esN0DB[0] = c.es_over_n0_db; one.sunLossDB[0] = c.sun_loss_db ?? 0;
         caseColumns(s, one, 0, 1, timeS, 0, dtS);
       }
       oneProb[0] = step.closing_probability; oneRate[0] = step.expected_information_rate_mbps;
@@ -184,6 +211,7 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
       for (let k = 0; k < states.length; k++) caseColumns(states[k], cols.cases[k], from, to, originS, k0, dtS);
       // Columns without the weather probability (the report's what-if recomputation carries none) skip its sums.
       if (cols.closingProbability) weatherSums(cols.closingProbability, cols.expectedInformationRateMbps, from, to, dtS);
+      sunSeparation(cols.sunSeparationDeg, from, to);
       steps += to - from;
       lastTimeS = originS + (k0 + to - 1) * dtS;
     },
@@ -213,8 +241,10 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
           adaptiveVolumeBits: adaptive ? s.adaptiveBits : null,
           verdict,
           verdictRule,
+          sunLostS: s.sunLostS,
         };
       });
+      const maxSunLossDB = Math.max(0, ...states.map((s) => s.maxSunLossDB));
       return {
         passId: pass.passId,
         satellite: pass.satellite,
@@ -233,6 +263,10 @@ export function createPassAccumulator(options: PassAccumulatorOptions): PassAccu
         expectedUsableS: wUsableS,
         sweptS: wSweptS,
         closesThroughoutProbability: Number.isNaN(wBits) ? NaN : wMinProb === Infinity ? 0 : wMinProb,
+        timingUncertaintyS: pass.timingUncertaintyS ?? NaN,
+        minSunSeparationDeg: minSunSepDeg,
+        maxSunLossDB,
+        sunAffected: maxSunLossDB >= SUN_AFFECTED_DB,
         cases,
       };
     },

@@ -8,6 +8,7 @@
  * i.e. when the outputs are written.
  */
 import type { PassCaseSummary, PassLinkSummary, Verdict } from './types.js';
+import { SUN_AFFECTED_DB } from './passAccumulator.js';
 
 const VERDICTS: readonly Verdict[] = ['usable', 'marginal', 'unusable'];
 
@@ -18,11 +19,11 @@ export interface PassTableState {
   n: number;
   /** Per row: string indices of pass id, satellite, station, link, direction. */
   text: Int32Array;
-  /** Per row: aos, tca, los, max elevation, duration (s, deg). */
+  /** Per row: aos, tca, los, max elevation, duration (s, deg), timing uncertainty (s), min Sun separation (deg), max Sun loss (dB). */
   times: Float64Array;
   /** Per row: steps, clipped start (0/1), clipped end (0/1), adaptive (0/1). */
   ints: Int32Array;
-  /** Per row and case: usable start, usable end (NaN: none), usable duration, min, mean, max margin, fixed bits, adaptive bits. */
+  /** Per row and case: usable start, usable end (NaN: none), usable duration, min, mean, max margin, fixed bits, adaptive bits, seconds lost to the Sun. */
   caseNums: Float64Array;
   /** Per row and case: verdict (0 usable, 1 marginal, 2 unusable), verdict-rule string index. */
   caseInts: Int32Array;
@@ -30,7 +31,7 @@ export interface PassTableState {
   weatherNums: Float64Array;
 }
 
-const TEXT = 5, TIMES = 5, INTS = 4, CASE_NUMS = 8, CASE_INTS = 2, WEATHER_NUMS = 4;
+const TEXT = 5, TIMES = 8, INTS = 4, CASE_NUMS = 9, CASE_INTS = 2, WEATHER_NUMS = 4;
 
 export class PassLinkTable implements Iterable<PassLinkSummary> {
   readonly weather: string[];
@@ -81,6 +82,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
     this.text[t + 3] = this.str(p.link); this.text[t + 4] = this.str(p.direction);
     const m = r * TIMES;
     this.times[m] = p.aosS; this.times[m + 1] = p.tcaS; this.times[m + 2] = p.losS; this.times[m + 3] = p.maxElevationDeg; this.times[m + 4] = p.durationS;
+    this.times[m + 5] = p.timingUncertaintyS; this.times[m + 6] = p.minSunSeparationDeg; this.times[m + 7] = p.maxSunLossDB;
     const k = r * INTS;
     this.ints[k] = p.steps; this.ints[k + 1] = p.clippedStart ? 1 : 0; this.ints[k + 2] = p.clippedEnd ? 1 : 0;
     this.ints[k + 3] = p.cases.some((c) => c.adaptiveVolumeBits !== null) ? 1 : 0;
@@ -93,7 +95,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
       const x = this.caseNums;
       x[o] = c.usableStartS ?? NaN; x[o + 1] = c.usableEndS ?? NaN; x[o + 2] = c.usableDurationS;
       x[o + 3] = c.minMarginDB; x[o + 4] = c.meanMarginDB; x[o + 5] = c.maxMarginDB;
-      x[o + 6] = c.fixedVolumeBits; x[o + 7] = c.adaptiveVolumeBits ?? NaN;
+      x[o + 6] = c.fixedVolumeBits; x[o + 7] = c.adaptiveVolumeBits ?? NaN; x[o + 8] = c.sunLostS;
       const q = (r * nc + j) * CASE_INTS;
       this.caseInts[q] = VERDICTS.indexOf(c.verdict); this.caseInts[q + 1] = this.str(c.verdictRule);
     });
@@ -116,7 +118,7 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
         usableEndS: Number.isNaN(x[o + 1]) ? null : x[o + 1],
         usableDurationS: x[o + 2], minMarginDB: x[o + 3], meanMarginDB: x[o + 4], maxMarginDB: x[o + 5],
         fixedVolumeBits: x[o + 6], adaptiveVolumeBits: adaptive ? x[o + 7] : null,
-        verdict: VERDICTS[this.caseInts[q]], verdictRule: s[this.caseInts[q + 1]],
+        verdict: VERDICTS[this.caseInts[q]], verdictRule: s[this.caseInts[q + 1]], sunLostS: x[o + 8],
       };
     });
     return {
@@ -124,7 +126,9 @@ export class PassLinkTable implements Iterable<PassLinkSummary> {
       direction: s[this.text[t + 4]] as PassLinkSummary['direction'],
       aosS: this.times[m], tcaS: this.times[m + 1], losS: this.times[m + 2], maxElevationDeg: this.times[m + 3], durationS: this.times[m + 4],
       clippedStart: this.ints[k + 1] === 1, clippedEnd: this.ints[k + 2] === 1, steps: this.ints[k],
-      expectedVolumeBits: w[wn], expectedUsableS: w[wn + 1], sweptS: w[wn + 2], closesThroughoutProbability: w[wn + 3], cases,
+      expectedVolumeBits: w[wn], expectedUsableS: w[wn + 1], sweptS: w[wn + 2], closesThroughoutProbability: w[wn + 3],
+      timingUncertaintyS: this.times[m + 5], minSunSeparationDeg: this.times[m + 6], maxSunLossDB: this.times[m + 7],
+      sunAffected: this.times[m + 7] >= SUN_AFFECTED_DB, cases,
     };
   }
 

@@ -29,6 +29,8 @@ export interface PassCaseSummary {
   verdict: Verdict;
   /** The rule that produced the verdict, in words, with the numbers it used. */
   verdictRule: string;
+  /** Σ Δt over steps unusable only because of the Sun's noise (margin + the C/N0 the Sun took ≥ the required margin) (s). */
+  sunLostS: number;
 }
 
 export interface PassLinkSummary {
@@ -58,6 +60,14 @@ export interface PassLinkSummary {
   expectedUsableS: number;
   sweptS: number;
   closesThroughoutProbability: number;
+  /** AOS/LOS uncertainty from the element-set error (± s; along-track error at TCA over the ground-track speed); NaN when not modelled. */
+  timingUncertaintyS: number;
+  /** Smallest angle between the Sun and the ground boresight over the pass's steps (deg); NaN when not modelled. */
+  minSunSeparationDeg: number;
+  /** Largest C/N0 the Sun's noise took at any step, any weather case (dB). */
+  maxSunLossDB: number;
+  /** maxSunLossDB ≥ SUN_AFFECTED_DB. */
+  sunAffected: boolean;
   cases: PassCaseSummary[];
 }
 

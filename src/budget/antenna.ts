@@ -5,7 +5,7 @@
  * The evaluators reuse one argument object each, so a call does not allocate.
  */
 import {
-  cosinePowerExponent, cosinePowerGainColumnDBi, cosinePowerGainDBi, cosinePowerGainPairColumnDBi, parabolicBeamwidthDeg, parabolicGainAtDBi,
+  cosinePowerExponent, cosinePowerGainColumnDBi, cosinePowerGainDBi, cosinePowerGainPairColumnDBi, parabolicBeamwidthDeg, parabolicGainAtDBi, parabolicGainColumnDBi,
   parabolicGainDBi, tabulatedGainDBi, validateGainTable,
 } from '../models/index.js';
 import { InputError } from '../errors.js';
@@ -82,9 +82,7 @@ function buildPattern(spec: AntennaSpec, frequencyGHz: number): Omit<AntennaPatt
       return {
         kind: spec.kind, peakGainDBi: peak, beamwidthDeg: bw,
         gainAtDBi: (off) => { args.offBoresightDeg = off; return parabolicGainAtDBi(args); },
-        gainColumnDBi: (off, add, n, out) => {
-          for (let i = 0; i < n; i++) { args.offBoresightDeg = off[i] + add; out[i] = parabolicGainAtDBi(args); }
-        },
+        gainColumnDBi: (off, add, n, out) => parabolicGainColumnDBi(args, off, add, n, out),
         source: 'dish G = η(πD/λ)², θ3dB ≈ 70λ/D, main lobe 12(θ/θ3dB)²',
         apertureDiameterM: spec.diameterM, apertureEfficiency: spec.efficiency,
       };

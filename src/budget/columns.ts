@@ -10,6 +10,7 @@ export const STEP_COLUMNS = [
   'eirp_dbw', 'free_space_loss_db', 'polarisation_loss_db', 'tx_pointing_loss_db', 'rx_pointing_loss_db',
   'other_losses_db', 'mount_lag_deg', 'mount_limited', 'doppler_hz', 'doppler_rate_hz_s',
   'closing_probability', 'expected_information_rate_mbps', 'closing_probability_clamped',
+  'element_age_days', 'element_pointing_error_deg', 'sun_separation_deg', 'sun_noise_temperature_k',
 ] as const satisfies ReadonlyArray<keyof StepBudget>;
 
 export const CASE_COLUMNS = [

@@ -46,7 +46,8 @@ import { explainStep, type ExplainLine } from './explain.js';
 import { createMountState, resetMount, stepMountColumn, type MountState } from './mount.js';
 import { applyCaseRule, createCaseRule } from './caseRule.js';
 import { buildWeatherTable, weatherColumns, weatherLevels } from './weather.js';
-import type { AdaptiveMode, CaseBudget, Climate, LinkSpec, StepBudget, WeatherCase } from './types.js';
+import type { AdaptiveMode, CaseBudget, Climate, ElementErrorSpec, LinkSpec, StepBudget, SunNoiseSpec, WeatherCase } from './types.js';
+import { createEffects, type EffectsShare } from './effects.js';
 
 export interface LinkEngineOptions {
   link: LinkSpec;
@@ -61,6 +62,12 @@ export interface LinkEngineOptions {
   table?: ElevationTable;
   /** Weather as a probability (weather.ts; default true): false leaves its step columns NaN and builds no table. */
   weatherProbability?: boolean;
+  /** The satellite's element-set error (pointing error of program tracks; none when absent). */
+  elementError?: ElementErrorSpec;
+  /** Noise from the Sun in the ground antenna's beam (none when absent). */
+  sun?: SunNoiseSpec;
+  /** Shared by the engines of one satellite: the link-independent effect columns computed once per station and run of steps. */
+  effectsShare?: EffectsShare;
 }
 
 /** Intermediate values of the last evaluated step (for explain; overwritten each step). */
@@ -128,7 +135,7 @@ export function createCaseBudget(weather: string): CaseBudget {
   return {
     weather, gas_loss_db: NaN, rain_loss_db: NaN, cloud_loss_db: NaN, scintillation_db: NaN, atmospheric_loss_db: NaN,
     antenna_temperature_k: NaN, system_temperature_k: NaN, g_over_t_dbk: NaN, c_over_n0_dbhz: NaN, eb_over_n0_db: NaN,
-    es_over_n0_db: NaN, required_eb_over_n0_db: NaN, margin_db: NaN, usable: false, mode: '', information_rate_bps: 0,
+    es_over_n0_db: NaN, required_eb_over_n0_db: NaN, margin_db: NaN, usable: false, mode: '', information_rate_bps: 0, sun_loss_db: 0,
   };
 }
 
@@ -139,6 +146,7 @@ export function createStepBudget(weatherCases: readonly WeatherCase[]): StepBudg
     eirp_dbw: NaN, free_space_loss_db: NaN, polarisation_loss_db: NaN, tx_pointing_loss_db: NaN, rx_pointing_loss_db: NaN,
     other_losses_db: NaN, mount_lag_deg: 0, mount_limited: false, doppler_hz: NaN, doppler_rate_hz_s: NaN,
     closing_probability: NaN, expected_information_rate_mbps: NaN, closing_probability_clamped: false,
+    element_age_days: NaN, element_pointing_error_deg: 0, sun_separation_deg: NaN, sun_noise_temperature_k: 0,
     cases: weatherCases.map((w) => createCaseBudget(w.name)),
   };
 }
@@ -259,20 +267,35 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     : weatherLevels([reqMargin], [bitRate / 1e6]);
   const modeRates = modes.map((m) => symbolRate * m.efficiencyBitsPerSymbol);
   const modeNames = modes.map((m) => m.name);
+  // Element age and its pointing error, the Sun's separation and noise (effects.ts), per step into their columns.
+  const effects = createEffects({
+    link, groundAntenna: gndAnt, elementError: options.elementError, sun: options.sun, rxFeedLossDB: ctx.rxFeedLossDB, share: options.effectsShare,
+  });
+  const scTracksElements = effects.elementErrorActive && scPointing.kind === 'tracking';
+  notes.push(...effects.notes);
   // Ground pointing loss of a program track when the mount does not lag (lag 0: the error alone).
   const gndLossNoLag = gndErrDeg > 0 ? Math.max(0, gndAnt.peakGainDBi - gndAnt.gainAtDBi(gndErrDeg)) : 0;
 
   // Scratch columns, grown on demand (held in one object so the loops below take them as locals).
-  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0), x: new Float64Array(0) };
+  const sc = { cap: 0, lo: new Int32Array(0), hiOff: new Int32Array(0), frac: new Float64Array(0), base: new Float64Array(0), x: new Float64Array(0), tmp: new Float64Array(0) };
   function scratch(n: number): void {
     if (n <= sc.cap) return;
     const cap = Math.max(n, 2 * sc.cap);
     sc.cap = cap;
-    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap); sc.x = new Float64Array(cap);
+    sc.lo = new Int32Array(cap); sc.hiOff = new Int32Array(cap); sc.frac = new Float64Array(cap); sc.base = new Float64Array(cap); sc.x = new Float64Array(cap); sc.tmp = new Float64Array(cap);
   }
 
   /** Spacecraft antenna gain at the off-boresight angle and the pointing loss of the attitude error (≥ 0). */
   function spacecraftGains(off: Float64Array, n: number, gain: Float64Array, loss: Float64Array): void {
+    if (scTracksElements && effects.pointingAny) {
+      // A tracking spacecraft points with the elements too: its error is the attitude error and the element error, root sum of squares.
+      const e = effects.pointingDeg, t = sc.tmp, a2 = scErrDeg * scErrDeg;
+      for (let i = 0; i < n; i++) t[i] = off[i] + (e[i] === 0 ? scErrDeg : Math.sqrt(a2 + e[i] * e[i]));
+      scAnt.gainColumnDBi(off, 0, n, gain);
+      scAnt.gainColumnDBi(t, 0, n, loss);
+      for (let i = 0; i < n; i++) { const l = gain[i] - loss[i]; loss[i] = l > 0 ? l : 0; }
+      return;
+    }
     if (!(scErrDeg > 0)) { scAnt.gainColumnDBi(off, 0, n, gain); loss.fill(0, 0, n); return; }
     scAnt.gainPairColumnDBi(off, scErrDeg, n, gain, loss);
     for (let i = 0; i < n; i++) {
@@ -296,6 +319,21 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     }
     const peak = gndAnt.peakGainDBi * 1;
     const lossNoLag = gndLossNoLag * 1, errDeg = gndErrDeg * 1;
+    if (effects.elementErrorActive) {
+      // Program track on the elements: the mount's own error and the element error, root sum of squares (independent errors).
+      const e = effects.pointingDeg, t = sc.tmp, e2 = errDeg * errDeg;
+      if (rateLimited) stepMountColumn(mount, sat.originS, sat.k0 + satFrom, sat.stepS, az, appEl, n, maxAzRate, maxElRate, lagCol, limCol);
+      else { lagCol.fill(0, 0, n); limCol.fill(0, 0, n); }
+      for (let i = 0; i < n; i++) t[i] = lagCol[i] + (e[i] === 0 ? errDeg : Math.sqrt(e2 + e[i] * e[i]));
+      gndAnt.gainColumnDBi(t, 0, n, gLossA);
+      for (let i = 0; i < n; i++) {
+        gOffA[i] = lagCol[i];
+        gGainA[i] = peak;
+        const l = t[i] > 0 ? peak - gLossA[i] : 0;
+        gLossA[i] = l > 0 ? l : 0;
+      }
+      return;
+    }
     if (!rateLimited) {
       gOffA.fill(0, 0, n); gGainA.fill(peak, 0, n); gLossA.fill(gndLossNoLag, 0, n);
       lagCol.fill(0, 0, n); limCol.fill(0, 0, n);
@@ -354,6 +392,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
   ): LinkColumns {
     if (n > out.capacity) throw new Error(`link ${link.name}: ${n} steps do not fit columns of ${out.capacity}`);
     scratch(n);
+    effects.fill(sat, satFrom, stn, n, out);
     out.n = n;
     out.polarisationLossDB = polLoss;
     out.otherLossesDB = link.otherLossesDB;
@@ -376,8 +415,11 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
       if (full) {
         tableTermPairColumn(table, o + TERM.gas, o + TERM.rain, n, lo, hiOff, frac, c.gasDB, c.rainDB);
         tableTermPairColumn(table, o + TERM.cloud, o + TERM.scintillation, n, lo, hiOff, frac, c.cloudDB, c.scintillationDB);
+      }
+      if (full || effects.sunInRun) {
         tableTermPairColumn(table, o + TERM.antennaTemperatureK, o + TERM.systemTemperatureK, n, lo, hiOff, frac, c.antennaTemperatureK, c.systemTemperatureK);
       }
+      effects.sunCase(c, n);
       caseTerms(c, n, sc.base, out.rxGainDBi, full);
     }
     if (weather) {
@@ -408,6 +450,7 @@ export function createLinkEngine(options: LinkEngineOptions): LinkEngine {
     stn1.rangeKm[0] = s.rangeKm; stn1.rangeRateKmS[0] = s.rangeRateKmS; stn1.rangeAccelKmS2[0] = s.rangeAccelKmS2;
     const u = lineOfSightTeme(s);
     stn1.losX[0] = u[0]; stn1.losY[0] = u[1]; stn1.losZ[0] = u[2];
+    effects.invalidate(); // one-entry columns refilled each call: never reuse the shared effect columns
     evaluateColumns(sat1, 0, stn1, 1, cols1, true);
     readStep(stn1, cols1, 0, s.timeS, modeNames, out);
     detail.atmosphericElevationDeg = cols1.atmosphericElevationDeg[0];

@@ -89,6 +89,17 @@ export function explainStep(input: ExplainInput): ExplainLine[] {
   add('Path', 'polarisation mismatch', step.polarisation_loss_db, 'dB', '−', 3, 'polarisation loss factor from axial ratios and tilt difference');
   add('Path', 'other losses', step.other_losses_db, 'dB', '−', 2, 'link description');
 
+  if (Number.isFinite(step.element_age_days)) {
+    add('Receive', 'element-set age', step.element_age_days, 'days', '', 3, 't − element epoch (or the fixed what-if age)');
+    add('Receive', 'element pointing error', step.element_pointing_error_deg, 'deg', '', 4,
+      'atan(e⊥ / range), e⊥ the along/cross-track error across the line of sight; root sum of squares with the program track\'s own error');
+  }
+  if (Number.isFinite(step.sun_separation_deg)) {
+    add('Receive', 'Sun from the ground boresight', step.sun_separation_deg, 'deg', '', 3, 'Astronomical Almanac low-precision Sun (from memory), geocentric');
+    add('Receive', 'Sun noise (antenna temperature)', step.sun_noise_temperature_k, 'K', '', 1,
+      'quiet-Sun brightness (from memory, rough) × activity, 0.533° disc weighted by the ground pattern; in the antenna temperature below');
+    add('Receive', 'C/N0 lost to the Sun', pc((c) => c.sun_loss_db), 'dB', '', 3, '10 log10(1 + ΔT_sys / T_sys), in G/T below');
+  }
   add('Receive', `${rxName} off-boresight angle`, step.rx_off_boresight_deg, 'deg', '', 3, pointingSource[rxPointing]);
   if (!downlink || link.ground.pointing.kind === 'track') {
     add('Receive', 'mount lag', step.mount_lag_deg, 'deg', '', 3, 'rate-limited az–el mount, pre-positioned at AOS');

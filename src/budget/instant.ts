@@ -59,7 +59,9 @@ export function budgetAtInstant(
   const stn = pick(scenario.stations, names.station, (s) => s.station.name, '--station', file);
   const candidates = scenario.links.filter((l) => l.satellite === sat.name && l.station === stn.station.name);
   const link = pick(candidates, names.link, (l) => l.name, '--link', `${file} for ${sat.name} at ${stn.station.name}`);
-  const engine = createLinkEngine({ link, climate: stn.climate, weatherCases: scenario.weatherCases });
+  const engine = createLinkEngine({
+    link, climate: stn.climate, weatherCases: scenario.weatherCases, elementError: sat.elementError, sun: scenario.sun ?? undefined,
+  });
   // The run's own orbit (interpolated between SGP4 nodes unless exact_orbit), so the numbers are steps.csv's.
   const prop = createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
   const geo = createStationGeometry(stn.station);

@@ -28,6 +28,8 @@ export interface CaseColumns {
   /** Adaptive: index of the mode chosen in the link's mode table, −1 when none fits; fixed: −1. */
   mode: Int16Array;
   informationRateBps: Float64Array;
+  /** C/N0 lost to the Sun's noise (dB, ≥ 0). */
+  sunLossDB: Float64Array;
 }
 
 export interface LinkColumns {
@@ -56,6 +58,10 @@ export interface LinkColumns {
   closingProbability: Float64Array;
   expectedInformationRateMbps: Float64Array;
   closingClamped: Uint8Array;
+  elementAgeDays: Float64Array;
+  elementPointingErrorDeg: Float64Array;
+  sunSeparationDeg: Float64Array;
+  sunNoiseK: Float64Array;
   /** Constant per link. */
   polarisationLossDB: number;
   otherLossesDB: number;
@@ -67,7 +73,7 @@ function caseColumns(n: number): CaseColumns {
   return {
     gasDB: f(), rainDB: f(), cloudDB: f(), scintillationDB: f(), atmosphericDB: f(), antennaTemperatureK: f(),
     systemTemperatureK: f(), gOverTDBK: f(), cOverN0DBHz: f(), ebN0DB: f(), esN0DB: f(), requiredEbN0DB: f(),
-    marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f(),
+    marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f(), sunLossDB: f(),
   };
 }
 
@@ -79,6 +85,7 @@ export function createLinkColumns(capacity: number, caseCount: number): LinkColu
     txPointingLossDB: f(), rxPointingLossDB: f(), mountLagDeg: f(), mountLimited: new Uint8Array(capacity),
     dopplerHz: f(), dopplerRateHzS: f(), atmosphericElevationDeg: f(),
     closingProbability: f(), expectedInformationRateMbps: f(), closingClamped: new Uint8Array(capacity),
+    elementAgeDays: f(), elementPointingErrorDeg: f(), sunSeparationDeg: f(), sunNoiseK: f(),
     polarisationLossDB: NaN, otherLossesDB: NaN,
     cases: Array.from({ length: caseCount }, () => caseColumns(capacity)),
   };
@@ -109,6 +116,10 @@ export function readStep(stn: StationColumns, c: LinkColumns, i: number, timeS: 
   out.closing_probability = c.closingProbability[i];
   out.expected_information_rate_mbps = c.expectedInformationRateMbps[i];
   out.closing_probability_clamped = c.closingClamped[i] === 1;
+  out.element_age_days = c.elementAgeDays[i];
+  out.element_pointing_error_deg = c.elementPointingErrorDeg[i];
+  out.sun_separation_deg = c.sunSeparationDeg[i];
+  out.sun_noise_temperature_k = c.sunNoiseK[i];
   for (let k = 0; k < out.cases.length; k++) {
     const s = c.cases[k];
     const o = out.cases[k];
@@ -129,6 +140,7 @@ export function readStep(stn: StationColumns, c: LinkColumns, i: number, timeS: 
     const m = s.mode[i];
     o.mode = m >= 0 && o.usable ? modeNames[m] : '';
     o.information_rate_bps = s.informationRateBps[i];
+    o.sun_loss_db = s.sunLossDB[i];
   }
   return out;
 }

@@ -146,6 +146,8 @@ export interface CaseBudget {
   mode: string;
   /** Information rate delivered at this step (b/s): fixed rate when usable, adaptive Rs·η, else 0. */
   information_rate_bps: number;
+  /** C/N0 lost to the Sun's noise (dB, ≥ 0). */
+  sun_loss_db: number;
 }
 
 /** Per-step budget record. Reused between steps by the engine; copy what you keep. */
@@ -173,5 +175,29 @@ export interface StepBudget {
   expected_information_rate_mbps: number;
   /** The probability was clamped at the model's 0.001–5 % range. */
   closing_probability_clamped: boolean;
+  /** Age of the element set at this step (days, t − epoch, or the fixed what-if age). */
+  element_age_days: number;
+  /** Pointing error the element error implies at the station (deg), added (root sum of squares) to a program track's. */
+  element_pointing_error_deg: number;
+  /** Angle between the Sun and the ground antenna's boresight (deg); NaN when not modelled. */
+  sun_separation_deg: number;
+  /** Antenna temperature the Sun adds (K, above the atmosphere). */
+  sun_noise_temperature_k: number;
   cases: CaseBudget[];
 }
+
+/**
+ * Element-set error of the satellite's elements (models/elementError.ts): the
+ * elements' epoch and the linear error growth; `ageDays` fixes the age at
+ * every step (a what-if: "the elements are this old") instead of t − epoch.
+ */
+export interface ElementErrorSpec {
+  epochS: number;
+  atEpochKm: number;
+  alongTrackKmPerDay: number;
+  crossTrackKmPerDay: number;
+  ageDays?: number;
+}
+
+/** Noise from the Sun in the ground antenna's beam (models/sunNoise.ts): quiet-Sun brightness × activityFactor. */
+export interface SunNoiseSpec { activityFactor: number }

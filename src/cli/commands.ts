@@ -6,8 +6,9 @@ import { register as mask } from './mask.js';
 import { register as rate } from './rate.js';
 import { register as schema } from './schema.js';
 import { register as report } from './report.js';
+import { register as age } from './age.js';
 
 /** Each command file exports a `register(program)`; add new commands here. */
 export type Register = (program: Command) => void;
 
-export const commands: Register[] = [passes, explain, run, mask, rate, schema, report];
+export const commands: Register[] = [passes, explain, run, mask, rate, schema, report, age];

@@ -30,6 +30,7 @@ export const PASS_COLUMNS = [
   'fixed_volume_bits', 'fixed_volume_mb', 'adaptive_volume_bits', 'adaptive_volume_mb',
   'verdict', 'verdict_rule',
   'expected_volume_bits', 'expected_volume_mb', 'expected_usable_s', 'closes_throughout_probability',
+  'timing_uncertainty_s', 'min_sun_separation_deg', 'max_sun_loss_db', 'sun_affected', 'sun_lost_s',
 ];
 
 const iso = (t: number | null) => (t === null ? '' : formatIsoUtc(t));
@@ -48,6 +49,7 @@ export function passRows(passes: Iterable<PassLinkSummary>): CsvCell[][] {
         c.adaptiveVolumeBits === null ? '' : fmt(bitsToMegabytes(c.adaptiveVolumeBits), 6),
         c.verdict, c.verdictRule,
         fmt(p.expectedVolumeBits, 0), fmt(bitsToMegabytes(p.expectedVolumeBits), 6), fmt(p.expectedUsableS, 3), fmt(p.closesThroughoutProbability, 6),
+        fmt(p.timingUncertaintyS, 3), fmt(p.minSunSeparationDeg, 3), fmt(p.maxSunLossDB, 3), p.sunAffected, fmt(c.sunLostS, 3),
       ]);
     }
   }
@@ -66,6 +68,8 @@ export function passJson(passes: Iterable<PassLinkSummary>): unknown[] {
     expected_volume_bits: round(p.expectedVolumeBits, 0), expected_volume_mb: round(bitsToMegabytes(p.expectedVolumeBits), 6),
     expected_usable_s: round(p.expectedUsableS, 3), swept_s: round(p.sweptS, 3),
     closes_throughout_probability: round(p.closesThroughoutProbability, 6),
+    timing_uncertainty_s: round(p.timingUncertaintyS, 3), min_sun_separation_deg: round(p.minSunSeparationDeg, 3),
+    max_sun_loss_db: round(p.maxSunLossDB, 3), sun_affected: p.sunAffected,
     weather: p.cases.map((c) => ({
       weather: c.weather,
       usable_start_utc: c.usableStartS === null ? null : iso(c.usableStartS),
@@ -75,7 +79,7 @@ export function passJson(passes: Iterable<PassLinkSummary>): unknown[] {
       fixed_volume_bits: round(c.fixedVolumeBits, 0), fixed_volume_mb: round(bitsToMegabytes(c.fixedVolumeBits), 6),
       adaptive_volume_bits: c.adaptiveVolumeBits === null ? null : round(c.adaptiveVolumeBits, 0),
       adaptive_volume_mb: c.adaptiveVolumeBits === null ? null : round(bitsToMegabytes(c.adaptiveVolumeBits), 6),
-      verdict: c.verdict, verdict_rule: c.verdictRule,
+      verdict: c.verdict, verdict_rule: c.verdictRule, sun_lost_s: round(c.sunLostS, 3),
     })),
   }));
 }
@@ -123,6 +127,9 @@ export const MODELS_USED = [
   { name: 'External noise', source: 'ITU-R P.372 galactic and man-made (from memory)' },
   { name: 'Refraction', source: 'ITU-R P.834 (from memory)' },
   { name: 'Antennas', source: 'aperture gain G = η(πD/λ)², θ3dB ≈ 70λ/D, 12(θ/θ3dB)² pointing loss (common practice)' },
+  { name: 'Sun position', source: 'Astronomical Almanac low-precision formula (about 0.01°; from memory)' },
+  { name: 'Sun noise', source: 'quiet-Sun brightness against frequency (from memory, rough) × activity factor, 0.533° disc weighted by the ground pattern' },
+  { name: 'Element-set error', source: 'linear along/cross-track growth from epoch (rates from memory, rough unless given); pointing error atan(e⊥/range), AOS/LOS ± along-track error / ground-track speed' },
   { name: 'Polarisation mismatch', source: 'elliptical polarisation loss factor (textbook form)' },
   { name: 'Modulation and coding', source: 'uncoded BER closed forms; coding profiles and DVB-S2 EN 302 307-1 Table 13 (from memory)' },
 ];

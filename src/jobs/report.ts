@@ -62,7 +62,9 @@ interface PassJson {
     weather: string; usable_start_utc: string | null; usable_end_utc: string | null; usable_duration_s: number;
     min_margin_db: number | null; mean_margin_db: number | null; max_margin_db: number | null;
     fixed_volume_bits: number; adaptive_volume_bits: number | null; verdict: Verdict; verdict_rule: string;
+    sun_lost_s?: number | null;
   }[];
+  timing_uncertainty_s?: number | null; min_sun_separation_deg?: number | null; max_sun_loss_db?: number | null; sun_affected?: boolean;
 }
 
 export function passesFromJson(list: PassJson[]): PassLinkSummary[] {
@@ -73,12 +75,14 @@ export function passesFromJson(list: PassJson[]): PassLinkSummary[] {
     steps: p.steps,
     expectedVolumeBits: p.expected_volume_bits ?? NaN, expectedUsableS: p.expected_usable_s ?? NaN,
     sweptS: p.swept_s ?? NaN, closesThroughoutProbability: p.closes_throughout_probability ?? NaN,
+    timingUncertaintyS: p.timing_uncertainty_s ?? NaN, minSunSeparationDeg: p.min_sun_separation_deg ?? NaN,
+    maxSunLossDB: p.max_sun_loss_db ?? 0, sunAffected: p.sun_affected ?? false,
     cases: p.weather.map((c) => ({
       weather: c.weather, usableStartS: time(c.usable_start_utc), usableEndS: time(c.usable_end_utc),
       usableDurationS: c.usable_duration_s,
       minMarginDB: c.min_margin_db ?? NaN, meanMarginDB: c.mean_margin_db ?? NaN, maxMarginDB: c.max_margin_db ?? NaN,
       fixedVolumeBits: c.fixed_volume_bits, adaptiveVolumeBits: c.adaptive_volume_bits,
-      verdict: c.verdict, verdictRule: c.verdict_rule,
+      verdict: c.verdict, verdictRule: c.verdict_rule, sunLostS: c.sun_lost_s ?? 0,
     })),
   }));
 }

@@ -119,6 +119,20 @@ export function reportInput(
   };
 }
 
+/**
+ * One warning line when any pass-link had the Sun in the ground beam
+ * (C/N0 cost ≥ SUN_AFFECTED_DB at some step): how many, the worst, and the
+ * seconds lost in its first weather case; null when none.
+ */
+export function sunWarning(passLinks: readonly PassLinkSummary[]): string | null {
+  const hit = passLinks.filter((p) => p.sunAffected);
+  if (hit.length === 0) return null;
+  const worst = hit.reduce((a, b) => (b.maxSunLossDB > a.maxSunLossDB ? b : a));
+  const lostS = hit.reduce((t, p) => t + (p.cases[0]?.sunLostS ?? 0), 0);
+  return `Sun in the beam: ${hit.length} pass-link${hit.length > 1 ? 's' : ''} lost C/N0 to the Sun's noise (worst ${worst.maxSunLossDB.toFixed(1)} dB, ${worst.passId} ${worst.link}, `
+    + `${worst.minSunSeparationDeg.toFixed(2)}° from the Sun); ${lostS.toFixed(0)} s unusable because of it in the ${hit[0].cases[0]?.weather ?? 'first'} case (see sun_affected and sun_lost_s in passes.csv; quiet-Sun brightness from memory, rough)`;
+}
+
 export async function runScenario(scenario: ResolvedScenario, opts: RunOptions = {}): Promise<RunResult> {
   const outDir = defaultOutDir(scenario, opts.outDir);
   const steps = opts.steps === undefined ? scenario.output.steps : stepsChoice(opts.steps);
@@ -147,6 +161,8 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     const { trade, findings } = maskResults(scenario, pipeline);
     // The pass records, built once from the compact table for the outputs that list them.
     const passLinks = pipeline.passLinks.toArray();
+    const sunLine = sunWarning(passLinks);
+    if (sunLine) warnings.push(sunLine);
     out.writeFile('passes.csv', await csvText(PASS_COLUMNS, passRows(passLinks)));
     out.writeFile('passes.json', `${JSON.stringify(passJson(passLinks), null, 2)}\n`);
     out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily, passLinks)));

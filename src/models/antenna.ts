@@ -44,10 +44,24 @@ export function parabolicGainAtDBi(a: {
   diameterM: number; frequencyGHz: number; efficiency: number; offBoresightDeg: number; floorGainDBi?: number;
 }): number {
   const peak = parabolicGainDBi(a);
-  const r = a.offBoresightDeg / parabolicBeamwidthDeg(a);
+  return parabolicMainLobeDBi(peak, parabolicBeamwidthDeg(a), a.floorGainDBi ?? peak - PARABOLIC_SIDELOBE_BELOW_PEAK_DB, a.offBoresightDeg);
+}
+
+/** The main lobe with its floor, from the peak (dBi), beamwidth (deg) and floor (dBi): the one formula of parabolicGainAtDBi. */
+function parabolicMainLobeDBi(peak: number, beamwidthDeg: number, floor: number, offDeg: number): number {
+  const r = offDeg / beamwidthDeg;
   const g = peak - 12 * r * r; // pointingLossDB, inlined so the call does not allocate
-  const floor = a.floorGainDBi ?? peak - PARABOLIC_SIDELOBE_BELOW_PEAK_DB;
   return g > floor ? g : floor;
+}
+
+/** parabolicGainAtDBi at off[i] + addDeg for i < n, into out: the peak, beamwidth and floor computed once (same numbers). */
+export function parabolicGainColumnDBi(
+  a: { diameterM: number; frequencyGHz: number; efficiency: number; floorGainDBi?: number }, off: Float64Array, addDeg: number, n: number, out: Float64Array,
+): void {
+  const peak = parabolicGainDBi(a);
+  const bw = parabolicBeamwidthDeg(a);
+  const floor = (a.floorGainDBi ?? peak - PARABOLIC_SIDELOBE_BELOW_PEAK_DB) * 1;
+  for (let i = 0; i < n; i++) out[i] = parabolicMainLobeDBi(peak, bw, floor, off[i] + addDeg);
 }
 
 /** n such that cosⁿ(θ3dB / 2) = 1/2, for 0 < θ3dB < 180° (broad-beam cosine-power model; common practice). */

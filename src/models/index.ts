@@ -17,3 +17,6 @@ export * from './polarisation.js';
 export * from './erfc.js';
 export * from './ber.js';
 export * from './modcod.js';
+export * from './sun.js';
+export * from './sunNoise.js';
+export * from './elementError.js';

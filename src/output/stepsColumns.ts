@@ -44,6 +44,8 @@ export const STEP_SOURCE: Record<string, string> = {
   mount_limited: 'c.mountLimited[i]', doppler_hz: 'c.dopplerHz[i]', doppler_rate_hz_s: 'c.dopplerRateHzS[i]',
   closing_probability: 'c.closingProbability[i]', expected_information_rate_mbps: 'c.expectedInformationRateMbps[i]',
   closing_probability_clamped: 'c.closingClamped[i]',
+  element_age_days: 'c.elementAgeDays[i]', element_pointing_error_deg: 'c.elementPointingErrorDeg[i]',
+  sun_separation_deg: 'c.sunSeparationDeg[i]', sun_noise_temperature_k: 'c.sunNoiseK[i]',
 };
 export const CASE_SOURCE: Record<string, string> = {
   gas_loss_db: 'k.gasDB[i]', rain_loss_db: 'k.rainDB[i]', cloud_loss_db: 'k.cloudDB[i]', scintillation_db: 'k.scintillationDB[i]',

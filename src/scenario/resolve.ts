@@ -19,6 +19,7 @@ import {
   P676_SLANT_VALIDITY, codingProfile, requiredEbN0DB, type Interval,
 } from '../models/index.js';
 import type { LinkInput, ScenarioInput, StationInput, TerminalInput } from './schema.js';
+import { ELEMENT_ERROR_DEFAULTS } from './schema.js';
 import { formatPath, type Path, type ScenarioSource } from './source.js';
 import { stepsChoice, type AppliedDefault, type NetworkPolicy, type ResolvedScenario, type ScenarioSatellite, type ScenarioStation } from './types.js';
 
@@ -172,7 +173,22 @@ export function resolveScenarioInput(
     }
     const problem = propagationProblem(elements, startS, endS);
     if (problem) src.fail([...at, 'elements'], `${sat.name} cannot be propagated over the window: ${problem} (allowed: an element set SGP4 carries across the window)`);
-    satellites.push({ name: sat.name, elements, elementsFile: file });
+    const ee = sat.element_error ?? {};
+    for (const k of ['at_epoch_km', 'along_track_km_per_day', 'cross_track_km_per_day'] as const) {
+      if (ee[k] === undefined) {
+        ctx.recordDefault({
+          path: formatPath([...at, 'element_error', k]), value: String(ELEMENT_ERROR_DEFAULTS[k]),
+          reason: 'SGP4 error of a general-perturbations element set: about 1 km at epoch, along-track growth 1–3 km/day in LEO, cross-track far slower (from memory), rough; set your own from orbit-determination comparisons)',
+        });
+      }
+    }
+    const elementError = {
+      epochS: elements.epochUnixS,
+      atEpochKm: ee.at_epoch_km ?? ELEMENT_ERROR_DEFAULTS.at_epoch_km,
+      alongTrackKmPerDay: ee.along_track_km_per_day ?? ELEMENT_ERROR_DEFAULTS.along_track_km_per_day,
+      crossTrackKmPerDay: ee.cross_track_km_per_day ?? ELEMENT_ERROR_DEFAULTS.cross_track_km_per_day,
+    };
+    satellites.push({ name: sat.name, elements, elementsFile: file, elementError });
     if (!elementFiles.includes(file)) elementFiles.push(file);
 
     const dupLink = duplicates(sat.links.map((l) => l.name));
@@ -251,6 +267,13 @@ export function resolveScenarioInput(
     ctx.recordDefault({ path: 'exact_orbit', value: 'false', reason: 'SGP4 at nodes about a minute apart, 8-point Lagrange interpolation between them (position within 1 m of SGP4)' });
   }
 
+  const sunNoise = input.sun?.noise ?? true;
+  if (input.sun?.noise === undefined) ctx.recordDefault({ path: 'sun.noise', value: 'true', reason: 'Sun noise added when the Sun is in a tracking ground antenna\'s beam on a downlink' });
+  if (sunNoise && input.sun?.activity_factor === undefined) {
+    ctx.recordDefault({ path: 'sun.activity_factor', value: '1', reason: 'quiet Sun; brightness against frequency (from memory), rough (raise it for an active Sun)' });
+  }
+  const sun = sunNoise ? { activityFactor: input.sun?.activity_factor ?? 1 } : null;
+
   return {
     scenario: {
       name: input.name,
@@ -266,6 +289,7 @@ export function resolveScenarioInput(
       rateCandidatesBps,
       output: { dir, steps },
       exactOrbit,
+      sun,
       defaultsApplied,
       warnings,
       notices,

@@ -185,11 +185,21 @@ export const linkSchema = obj({
 
 // ---------------------------------------------------------------- satellites and stations
 
+/** Rough figures from memory (PHYSICS.md §13): SGP4 near 1 km at epoch, along-track growth 1–3 km/day in LEO, cross-track far slower. */
+export const ELEMENT_ERROR_DEFAULTS = { at_epoch_km: 1, along_track_km_per_day: 2, cross_track_km_per_day: 0.2 } as const;
+
+export const elementErrorSchema = obj({
+  at_epoch_km: nonNeg().max(1000).optional().meta(d(`Position error at the element epoch, in each of the along- and cross-track directions (km); default ${ELEMENT_ERROR_DEFAULTS.at_epoch_km} (from memory, rough)`)),
+  along_track_km_per_day: nonNeg().max(1000).optional().meta(d(`Growth of the along-track error per day from epoch (km/day); default ${ELEMENT_ERROR_DEFAULTS.along_track_km_per_day} (from memory, rough: 1–3 km/day in LEO, more at low altitude and solar maximum)`)),
+  cross_track_km_per_day: nonNeg().max(1000).optional().meta(d(`Growth of the cross-track error per day (km/day); default ${ELEMENT_ERROR_DEFAULTS.cross_track_km_per_day} (from memory, rough)`)),
+}).meta({ title: 'Element-set error', description: 'Linear growth of the SGP4 error with the age of the elements: the pointing error of program-track antennas and the AOS/LOS uncertainty. All zero: perfect elements' });
+
 export const satelliteSchema = obj({
   name: name('Satellite'),
   elements: z.string().min(1).meta(d('Element file (TLE/3LE, OMM JSON or OMM XML), relative to the scenario file')),
   select: z.string().min(1).optional().meta(d('Object name or catalogue number to pick when the file holds several element sets')),
   links: z.array(linkSchema).min(1),
+  element_error: elementErrorSchema.optional(),
 }).meta({ title: 'Satellite' });
 
 /** Rain-climate zone letters of ITU-R P.837-1 (no I or O). */
@@ -272,6 +282,11 @@ export const outputSchema = obj({
   steps: z.union([z.enum(['csv', 'parquet', 'none']), z.boolean()]).optional().meta(d('The per-step table: csv (steps.csv), parquet (steps.parquet) or none; true means csv, false none; default none')),
 }).meta({ title: 'Output options' });
 
+export const sunSchema = obj({
+  noise: z.boolean().optional().meta(d('Add the Sun\'s noise when it is in a tracking ground antenna\'s beam on a downlink; default true')),
+  activity_factor: z.number().min(1).max(1000).optional().meta(d('Brightness of the Sun relative to the quiet Sun (1 = quiet; an active Sun is several times brighter at microwave frequencies); default 1')),
+}).meta({ title: 'Sun in the beam' });
+
 export const scenarioSchema = obj({
   name: folderName('Scenario'),
   description: z.string().optional().meta(d('Free text')),
@@ -283,6 +298,7 @@ export const scenarioSchema = obj({
   mask_finder: maskFinderSchema.optional(),
   rate_finder: rateFinderSchema.optional(),
   output: outputSchema.optional(),
+  sun: sunSchema.optional(),
   exact_orbit: z.boolean().optional().meta(d('SGP4 at every instant instead of interpolating between SGP4 nodes about a minute apart (slower; a check of the interpolation); default false')),
 }).meta({
   title: 'passbudget scenario',

@@ -1,6 +1,6 @@
 import type { ElementSet } from '../elements/types.js';
 import type { Station } from '../geometry/types.js';
-import type { Climate, LinkSpec, WeatherCase } from '../budget/types.js';
+import type { Climate, ElementErrorSpec, LinkSpec, SunNoiseSpec, WeatherCase } from '../budget/types.js';
 
 /** A default the loader applied, listed in every run's outputs. */
 export interface AppliedDefault {
@@ -11,7 +11,11 @@ export interface AppliedDefault {
   reason: string;
 }
 
-export interface ScenarioSatellite { name: string; elements: ElementSet; elementsFile: string }
+export interface ScenarioSatellite {
+  name: string; elements: ElementSet; elementsFile: string;
+  /** The element set's error growth (epoch from the elements). Absent in hand-built scenarios: no element error. */
+  elementError?: ElementErrorSpec;
+}
 
 export interface ScenarioStation {
   station: Station;
@@ -43,6 +47,8 @@ export interface ResolvedScenario {
   output: { dir: string | null; steps: StepsChoice };
   /** SGP4 at every instant instead of interpolating between nodes (orbit/interpolated.ts). */
   exactOrbit: boolean;
+  /** Noise from the Sun in the ground antennas' beams; absent (hand-built scenarios) or null: not modelled. */
+  sun?: SunNoiseSpec | null;
   defaultsApplied: AppliedDefault[];
   warnings: string[];
   /**

@@ -20,6 +20,7 @@ import type { LinkColumns } from '../budget/linkColumns.js';
 import { createLinkColumns, readStep } from '../budget/linkColumns.js';
 import type { ElevationTable } from '../budget/atmosphere.js';
 import { createLinkEngine, createStepBudget, type LinkEngine } from '../budget/engine.js';
+import { createEffectsShare } from '../budget/effects.js';
 import type { LinkSpec, WeatherCase } from '../budget/types.js';
 import {
   createSatelliteColumns, createStationColumns, satelliteEarthFixed, stationLook, type StationColumns,
@@ -28,6 +29,8 @@ import { createStationGeometry, type StationGeometry } from '../geometry/station
 import { completePass, createOrbit } from '../passes/find.js';
 import type { Pass } from '../passes/types.js';
 import type { OrbitSource } from '../orbit/interpolated.js';
+import { gmstRad, temeToEcef } from '../orbit/frames.js';
+import { elementErrorKm, groundTrackSpeedKmS, timingUncertaintyS } from '../models/index.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { createDailyAccumulator, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
 import { createMaskHistogram, type MaskHistogram } from '../analysis/maskHistogram.js';
@@ -129,9 +132,13 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   const sat = scenario.satellites[layout.satIndex];
   const satOrbit = orbit ?? createOrbit(sat.elements, scenario.window, scenario.exactOrbit);
   const engines: LinkEngine[] = [];
+  const effectsShare = createEffectsShare();
   const stations: StationRun[] = layout.stations.map((st) => {
     const links: LinkRun[] = st.links.map((link) => {
-      const engine = createLinkEngine({ link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length] });
+      const engine = createLinkEngine({
+        link, climate: st.entry.climate, weatherCases: cases, table: tables?.[engines.length],
+        elementError: sat.elementError, sun: scenario.sun ?? undefined, effectsShare,
+      });
       engines.push(engine);
       // Accumulators (made at the first chunk) live as long as the sweeper; each chunk takes (and empties) its share.
       return { link, engine, station: st.entry.station.name, accPool: [], daily: [], mask: [], rate: [], envelope: [] };
@@ -151,6 +158,16 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
   const acquire = (st: StationRun): Slot => st.free.pop() ?? {
     stn: createStationColumns(WINDOW_STEPS), cols: st.links.map(() => createLinkColumns(WINDOW_STEPS, nCases)), bins: new Int32Array(WINDOW_STEPS),
     scOff: st.links.map(() => new Float64Array(WINDOW_STEPS)),
+  };
+  const tcaPos = new Float64Array(3), tcaVel = new Float64Array(3), ecefPos = new Float64Array(3), ecefVel = new Float64Array(3);
+  /** AOS/LOS uncertainty (± s) of a pass: the along-track element error at TCA over the ground-track speed there. */
+  const passTimingUncertaintyS = (tcaS: number): number => {
+    const ee = sat.elementError;
+    if (!ee) return NaN;
+    satOrbit.stateTeme(tcaS, tcaPos, tcaVel);
+    temeToEcef(gmstRad(tcaS), tcaPos, tcaVel, ecefPos, ecefVel);
+    const { alongTrackKm } = elementErrorKm({ ...ee, ageDays: ee.ageDays ?? (tcaS - ee.epochS) / 86_400 });
+    return timingUncertaintyS({ alongTrackKm, groundTrackSpeedKmS: groundTrackSpeedKmS({ positionEcefKm: ecefPos, velocityEcefKmS: ecefVel }) });
   };
   const net = createNetworkFeed({ startS, endS, stepS, cases, linkNames: layout.linkNames, protoLinks: protoLink, satellite: sat.name, policy: scenario.network });
   /** The accumulators, made when the first chunk is swept (a sweeper built only for its engines has none). */
@@ -198,6 +215,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const info = {
         passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
         maxElevationDeg: pass.maxElevationDeg, durationS: pass.durationS, clippedStart: pass.clippedStart, clippedEnd: pass.clippedEnd,
+        timingUncertaintyS: passTimingUncertaintyS(pass.tcaS),
       };
       for (const lr of st.links) {
         lr.engine.beginPass();

@@ -13,11 +13,13 @@ function rec(i: number, station: string, link: string, aosS: number, adaptive: b
     passId: `SAT-1/${station}/${i}`, satellite: 'SAT-1', station, link, direction: i % 2 ? 'uplink' : 'downlink',
     aosS, tcaS: aosS + 300.25, losS: aosS + 600.5, maxElevationDeg: 12.345 + i, durationS: 600.5, clippedStart: i === 0, clippedEnd: false, steps: 600 + i,
     expectedVolumeBits: 1e6 * i + 0.5, expectedUsableS: 480.25 - i, sweptS: 600 + i, closesThroughoutProbability: 0.95 + i / 1000,
+    timingUncertaintyS: 0.25 * i, minSunSeparationDeg: i === 2 ? NaN : 40 - i, maxSunLossDB: i === 1 ? 0.5 : 0, sunAffected: i === 1,
     cases: ['clear', '0.1%'].map((w, j) => ({
       weather: w, usableStartS: j ? null : aosS + 10, usableEndS: j ? null : aosS + 500, usableDurationS: j ? 0 : 491,
       minMarginDB: j ? NaN : -1.5, meanMarginDB: j ? NaN : 2.25, maxMarginDB: j ? NaN : 6.75,
       fixedVolumeBits: 9600 * 491, adaptiveVolumeBits: adaptive ? 1.5e9 + i : null,
       verdict: j ? 'unusable' : 'usable', verdictRule: j ? 'unusable: no step met the required margin' : `usable: rule ${i % 2}`,
+      sunLostS: j ? 0 : i,
     })),
   };
 }

@@ -84,3 +84,14 @@ describe('tabulated pattern (linear in dB)', () => {
     expect(() => tabulatedGainDBi({ offBoresightDeg: [0, 1], gainDBi: [0] }, 0.5)).toThrow(RangeError);
   });
 });
+
+describe('parabolic gain in columns', () => {
+  it('gives exactly parabolicGainAtDBi at each angle (the same formula, peak and beamwidth computed once)', async () => {
+    const { parabolicGainColumnDBi } = await import('../../src/models/antenna.js');
+    const dish = { diameterM: 3.7, frequencyGHz: 8.2, efficiency: 0.6 };
+    const off = Float64Array.from([0, 0.05, 0.3, 0.7, 1.2, 5, 40]);
+    const out = new Float64Array(off.length);
+    parabolicGainColumnDBi(dish, off, 0.1, off.length, out);
+    off.forEach((o, i) => expect(out[i]).toBe(parabolicGainAtDBi({ ...dish, offBoresightDeg: o + 0.1 })));
+  });
+});

@@ -93,6 +93,9 @@ describe('demo scenario orbilux-demo', () => {
       'exact_orbit',
       'network.policy',
       'output.dir',
+      'satellites[0].element_error.along_track_km_per_day',
+      'satellites[0].element_error.at_epoch_km',
+      'satellites[0].element_error.cross_track_km_per_day',
       'satellites[0].links[0].modcod.required_eb_n0_db',
       'satellites[0].links[0].spacecraft.pointing.boresight_body',
       'satellites[0].links[0].stations',
@@ -114,9 +117,11 @@ describe('demo scenario orbilux-demo', () => {
       'stations[1].climate.rain_rate_001_mm_h',
       'stations[1].climate.water_vapour_density_g_m3',
       'stations[2].mask_on',
+      'sun.activity_factor',
+      'sun.noise',
     ].sort());
     const byPath = new Map(s.defaultsApplied.map((d) => [d.path, d]));
-    for (const p of ['stations[1].climate.isotherm_height_km', 'stations[1].climate.rain_rate_001_mm_h', 'stations[1].climate.pressure_hpa', 'stations[0].climate.mean_radiating_temperature_k']) {
+    for (const p of ['satellites[0].element_error.at_epoch_km', 'sun.activity_factor', 'stations[1].climate.isotherm_height_km', 'stations[1].climate.rain_rate_001_mm_h', 'stations[1].climate.pressure_hpa', 'stations[0].climate.mean_radiating_temperature_k']) {
       expect(byPath.get(p)!.reason).toContain('(from memory)');
     }
     expect(Number(byPath.get('stations[1].climate.isotherm_height_km')!.value)).toBeCloseTo(3.5645, 3);
