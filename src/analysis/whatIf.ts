@@ -207,8 +207,12 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
         const whole = a === 0 && b === n;
         let sc: LinkColumns | null = null;
         if (cols) {
-          sc = { n: b - a, cases: cols.map((c) => ({
+          // What the pass accumulator reads. The Sun's cost is inside the carried C/N0 already; its flags (loss per
+          // step, separation) are the run's, not recomputed here: zero loss and no separation.
+          const none = new Float64Array(b - a);
+          sc = { n: b - a, sunSeparationDeg: new Float64Array(b - a).fill(NaN), cases: cols.map((c) => ({
             marginDB: c.marginDB.subarray(a, b), usable: c.usable.subarray(a, b), informationRateBps: c.informationRateBps.subarray(a, b), esN0DB: c.esN0DB.subarray(a, b),
+            sunLossDB: none,
           })) } as unknown as LinkColumns;
         }
         subs.push({ pass, station: s, k0: k0 + a, n: b - a, aosS, losS, durationS: whole ? pass.durationS : losS - aosS, cols: sc, linkSpec: specs[s] });
