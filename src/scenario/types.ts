@@ -42,6 +42,10 @@ export interface ResolvedScenario {
   output: { dir: string | null; steps: boolean };
   /** SGP4 at every instant instead of interpolating between nodes (orbit/interpolated.ts). */
   exactOrbit: boolean;
+  /** Contact-planning terms (passbudget plan); always set by the loader. */
+  plan?: ResolvedPlan;
+  /** Set by the plan job: keep each pass-link's cumulative volume on this grid (s) (sweep/profiles.ts). */
+  volumeProfileGridS?: number;
   defaultsApplied: AppliedDefault[];
   warnings: string[];
   /**
@@ -50,4 +54,40 @@ export interface ResolvedScenario {
    * with --quiet. Each is also in `warnings` (and so in summary.json).
    */
   notices?: string[];
+}
+
+/** One antenna of a station: it carries some terminals and serves one satellite at a time on all of them. */
+export interface PlanAntenna { station: string; name: string; terminals: string[]; setupS: number }
+
+export interface StationBooking {
+  /** Price of a booked minute (any currency unit). */
+  pricePerMinute: number;
+  minimumBookingS: number;
+  /** Booking grid from the window start (s), or none. */
+  granularityS: number | null;
+  maxContactsPerDay: number | null;
+}
+
+export interface SatelliteDemand {
+  satellite: string;
+  weight: number;
+  /** Bits per UTC day: all links together, or per link name; null: none. */
+  dailyTargetBits: null | { total: number } | { byLink: Record<string, number> };
+  minContactsPerDay: number;
+  /** Ground terminal of each link, by link name. */
+  linkTerminals: Record<string, string>;
+}
+
+/** The contact-planning terms of a scenario (passbudget plan). */
+export interface ResolvedPlan {
+  objective: 'max-volume' | 'min-cost';
+  /** Weather case name planned for. */
+  weather: string;
+  horizonDays: number;
+  timeLimitS: number;
+  antennas: PlanAntenna[];
+  booking: Record<string, StationBooking>;
+  demand: SatelliteDemand[];
+  /** The plan's own defaults (apart from the run's, which they do not change). */
+  defaultsApplied: AppliedDefault[];
 }

@@ -51,6 +51,7 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   for (const e of p.envelope) add(e);
   const t = p.passLinks;
   for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts]) out.add(a.buffer as ArrayBuffer);
+  if (p.profiles) { out.add(p.profiles.rows.buffer as ArrayBuffer); out.add(p.profiles.values.buffer as ArrayBuffer); }
   return [...out];
 }
 

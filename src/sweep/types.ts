@@ -12,6 +12,7 @@ import type { DailyRow, PassSeries } from '../analysis/types.js';
 import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { StepWindow } from './window.js';
+import type { VolumeProfiles, VolumeProfileState } from './profiles.js';
 
 /** One evaluated step as a record (the slow path, for checks and custom sinks); the objects are reused: copy what you keep. */
 export interface StepEvent {
@@ -116,6 +117,8 @@ export interface PipelineResult {
   /** SGP4 evaluations made by the sweep (nodes when interpolating), all satellites and threads. */
   sgp4Calls: number;
   engines: LinkEngine[];
+  /** With scenario.volumeProfileGridS: each pass-link's cumulative volume on that grid (sweep/profiles.ts). */
+  profiles?: VolumeProfiles;
 }
 
 /** What one chunk hands back: plain data and typed arrays (crosses a worker boundary). */
@@ -133,6 +136,8 @@ export interface ChunkPartial {
   rate: (RateHistogramState | null)[];
   /** With collectSeries: per layout station, link and case, [min | max | keyhole min] (ENVELOPE_BINS each); else empty. */
   envelope: Float64Array[];
+  /** With scenario.volumeProfileGridS: the chunk's volume profiles. */
+  profiles?: VolumeProfileState;
   stationSteps: number;
   gridTimes: number;
   linkSteps: number;
