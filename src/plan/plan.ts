@@ -70,6 +70,8 @@ export interface ContactPlan {
   days: SatelliteDay[];
   totalCost: number;
   solverTimeS: number;
+  /** Candidates, solves and the per-day tables together (s, wall clock). */
+  planTimeS: number;
   /** Worst gap over the horizons (0: every horizon optimal). */
   gap: number | null;
 }
@@ -157,6 +159,7 @@ export async function planContacts(scenario: ResolvedScenario, pipeline: Pipelin
   const plan = scenario.plan;
   if (!plan) throw new Error('plan: the scenario has no resolved plan terms');
   if (!pipeline.profiles) throw new Error('plan: the sweep kept no volume profiles (set scenario.volumeProfileGridS)');
+  const t0 = performance.now();
   const { candidates } = buildCandidates(scenario, pipeline.passLinks, pipeline.profiles);
   const chosen = new Uint8Array(candidates.length);
   const taken: Candidate[] = [];
@@ -192,6 +195,7 @@ export async function planContacts(scenario: ResolvedScenario, pipeline: Pipelin
     objective: plan.objective, weather: plan.weather, candidates, chosen, horizons, days,
     totalCost: candidates.reduce((s, c) => s + (chosen[c.id] ? c.cost : 0), 0),
     solverTimeS: horizons.reduce((s, h) => s + h.solverTimeS, 0),
+    planTimeS: (performance.now() - t0) / 1000,
     gap: gaps.some((x) => x === null) ? null : Math.max(0, ...(gaps as number[])),
   };
 }

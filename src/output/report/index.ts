@@ -70,6 +70,7 @@ export function renderReport(input: ReportInput): string {
     header(s, title, input.generatedNote),
     nav,
     glance(glanceRows(s, passes, input.daily), links, input.requiredMarginDB),
+    ...(input.extraSections ?? []),
     ...links.map((link, i) => linkSection({
       link,
       stations: s.stations,

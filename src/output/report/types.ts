@@ -45,4 +45,6 @@ export interface ReportInput {
   maxChartPoints?: number;
   /** Report title (default: the scenario name). */
   title?: string;
+  /** Further sections (HTML, already escaped), placed after "at a glance" (e.g. the contact plan). */
+  extraSections?: string[];
 }
