@@ -3,3 +3,4 @@ export { maskScenario, rateScenario, formatMaskResult, formatRateResult, type Ma
 export { rebuildReport, loadReportInput } from './report.js';
 export { stepColumns, PASS_COLUMNS, DAILY_COLUMNS, CAUTIONS, MODELS_USED } from './outputs.js';
 export { estimateRunSize, formatRunSize, timeInViewFraction, type RunSize } from './runSize.js';
+export { planScenario, type PlanResult } from './plan.js';

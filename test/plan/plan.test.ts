@@ -117,3 +117,34 @@ describe('on the real candidates', () => {
     expect(again.days).toEqual(plan.days);
   });
 });
+
+describe('other plan terms on the same run', () => {
+  it('min-cost pays no more than max-volume and still meets the contact counts it can', async () => {
+    const cheap = await planContacts({ ...s, plan: { ...s.plan!, objective: 'min-cost' } }, pipe);
+    expect(cheap.totalCost).toBeLessThanOrEqual(plan.totalCost + 1e-9);
+    expect(cheap.horizons.every((h) => h.method === 'highs' && h.gap === 0)).toBe(true);
+    for (const d of cheap.days) expect(d.unmetContacts).toBe(0);
+  });
+  it('past the time limit keeps the better of the solver\'s best and the greedy, with the gap to the LP bound', async () => {
+    const rushed = await planContacts({ ...s, plan: { ...s.plan!, timeLimitS: 1e-4 } }, pipe);
+    for (const h of rushed.horizons) {
+      expect(h.solverStatus).toBe('Time limit reached');
+      expect(h.objective).toBeGreaterThanOrEqual(h.greedyObjective);
+      expect(h.bound).not.toBeNull();
+      expect(h.gap).toBeGreaterThanOrEqual(0);
+      expect(h.objective).toBeLessThanOrEqual(h.bound! + 1e-6);
+    }
+    // The optimum is no better than the LP bound and no worse than what the rushed plan kept.
+    plan.horizons.forEach((h, i) => {
+      expect(h.objective).toBeLessThanOrEqual(rushed.horizons[i].bound! + 1e-6);
+      expect(h.objective).toBeGreaterThanOrEqual(rushed.horizons[i].objective - 1e-6);
+    });
+  });
+  it('a two-day horizon plans both days in one optimal solve, without clashes', async () => {
+    const both = await planContacts({ ...s, plan: { ...s.plan!, horizonDays: 2 } }, pipe);
+    expect(both.horizons).toHaveLength(1);
+    expect(both.horizons[0].gap).toBe(0);
+    const t = both.candidates.filter((c) => both.chosen[c.id]);
+    for (const a of t) for (const b of t) if (a.id < b.id) expect(clash(a, b)).toBe(false);
+  });
+});
