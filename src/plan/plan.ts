@@ -167,8 +167,11 @@ export async function planContacts(scenario: ResolvedScenario, pipeline: Pipelin
   const { firstDay, count } = utcDaysOfWindow(scenario.window.startS, scenario.window.endS);
   for (let h = 0; h < count; h += plan.horizonDays) {
     const days = Array.from({ length: Math.min(plan.horizonDays, count - h) }, (_, i) => firstDay + h + i);
-    const cs = candidates.filter((c) => c.day >= days[0] && c.day <= days[days.length - 1] && !taken.some((t) => clash(t, c)));
-    const p = horizonProblem(scenario, cs, days, taken);
+    // Contacts of earlier horizons that reach into this one (held, plus setup): the only ones that can clash or carry volume in.
+    const h0 = days[0] * 86_400;
+    const recent = taken.filter((t) => t.heldEndS + t.setupS > h0 || t.endS > h0);
+    const cs = candidates.filter((c) => c.day >= days[0] && c.day <= days[days.length - 1] && !recent.some((t) => clash(t, c)));
+    const p = horizonProblem(scenario, cs, days, recent);
     const g = greedy(p);
     let x = g.x, objective = g.objective, method: HorizonResult['method'] = cs.length ? 'greedy' : 'none';
     let status = 'Empty', bound: number | null = cs.length ? null : 0, timeS = 0;
