@@ -6,14 +6,18 @@
  * the same problem gives the same answer. When the time limit stops it, the
  * LP relaxation gives the bound the gap is measured against.
  */
-import * as highsModule from 'highs';
 import type { Highs } from 'highs';
 import type { SelectionProblem } from './model.js';
 
-// The package's ESM build exports the loader as default; its types describe the CommonJS shape.
-const highsLoader = ((highsModule as unknown as { default?: () => Promise<Highs> }).default ?? (highsModule as unknown as () => Promise<Highs>));
 let loaded: Promise<Highs> | null = null;
-function solver(): Promise<Highs> { return (loaded ??= highsLoader()); }
+/** HiGHS, loaded on first use (so no other command pays for its start-up). */
+function solver(): Promise<Highs> {
+  return (loaded ??= import('highs').then((m) => {
+    // The package's ESM build exports the loader as default; its types describe the CommonJS shape.
+    const loader = (m as unknown as { default?: () => Promise<Highs> }).default ?? (m as unknown as () => Promise<Highs>);
+    return loader();
+  }));
+}
 
 const num = (x: number) => {
   const s = Number(x.toPrecision(15)).toString();
