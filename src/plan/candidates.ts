@@ -61,11 +61,18 @@ export interface CandidateSet {
   caseIndex: number;
 }
 
-/** The volume-profile grid for a scenario (s): about 10 s, a whole number of steps, dividing every booking grid it can. */
+/**
+ * The volume-profile grid for a scenario (s): the longest whole number of steps
+ * up to about 10 s that divides every station's booking grid, so that trimmed
+ * boundaries fall on grid times and their volumes are exact.
+ */
 export function profileGridS(scenario: ResolvedScenario): number {
   const step = scenario.window.stepS;
-  const per = Math.max(1, Math.round(10 / step));
-  return step * per;
+  const grids = Object.values(scenario.plan?.booking ?? {}).flatMap((b) => (b.granularityS ? [b.granularityS] : []));
+  for (let k = Math.max(1, Math.round(10 / step)); k > 1; k--) {
+    if (grids.every((g) => Math.abs(g / (k * step) - Math.round(g / (k * step))) < 1e-9)) return k * step;
+  }
+  return step;
 }
 
 export function buildCandidates(scenario: ResolvedScenario, passLinks: PassLinkTable, profiles: VolumeProfiles): CandidateSet {
@@ -77,14 +84,33 @@ export function buildCandidates(scenario: ResolvedScenario, passLinks: PassLinkT
   const satOrder = new Map(scenario.satellites.map((s, i) => [s.name, i]));
   // Pass-links grouped by pass id (rows of one pass are its links, in station order).
   const byPass = new Map<string, { satellite: string; station: string; link: string; u0: number; u1: number }[]>();
+  /** Per pass-link, per case: the usable window [first usable step, last usable step + Δt), or null. */
+  const usable = new Map<string, ([number, number] | null)[]>();
   for (let r = 0; r < passLinks.length; r++) {
     const p = passLinks.get(r);
+    usable.set(`${p.passId}\u0000${p.link}`, p.cases.map((x) => (x.usableStartS === null || x.usableEndS === null ? null : [x.usableStartS, Math.min(x.usableEndS + stepS, W1)])));
     const c = p.cases[caseIndex];
     if (c.usableStartS === null || c.usableEndS === null) continue;
     let list = byPass.get(p.passId);
     if (!list) { list = []; byPass.set(p.passId, list); }
     list.push({ satellite: p.satellite, station: p.station, link: p.link, u0: c.usableStartS, u1: Math.min(c.usableEndS + stepS, W1) });
   }
+  const gridS = profiles.gridS;
+  /**
+   * Volume of a pass-link in case c inside [a, b]: clipped to its usable window
+   * in that case (nothing usable outside it, so a boundary there is exact), the
+   * rest from the profile (exact on its grid times, where trims fall).
+   */
+  const linkVolume = (passId: string, link: string, c: number, a: number, b: number): number => {
+    const u = usable.get(`${passId}\u0000${link}`)?.[c];
+    if (!u) return 0;
+    const lo = Math.max(a, u[0]), hi = Math.min(b, u[1]);
+    if (!(hi > lo)) return 0;
+    const total = profiles.total(passId, link, c);
+    const upper = hi >= u[1] ? total : profiles.cumulative(passId, link, c, hi, W0);
+    const lower = lo <= u[0] ? 0 : profiles.cumulative(passId, link, c, lo, W0);
+    return upper - lower;
+  };
   const raw: Omit<Candidate, 'id'>[] = [];
   for (const [passId, rows] of byPass) {
     const { satellite, station } = rows[0];
@@ -102,21 +128,21 @@ export function buildCandidates(scenario: ResolvedScenario, passLinks: PassLinkT
       if (!(b > a)) continue;
       const spans: [number, number][] = [[a, b]];
       if (b - a >= MIN_SPLIT_S) {
-        const mid = g ? W0 + Math.round(((a + b) / 2 - W0) / g) * g : W0 + Math.round(((a + b) / 2 - W0) / stepS) * stepS;
+        const mid = W0 + Math.round(((a + b) / 2 - W0) / (g ?? gridS)) * (g ?? gridS);
         if (mid > a && mid < b) spans.push([a, mid], [mid, b]);
       }
       const windowKey = `${passId}\u0000${ant.name}`;
       spans.forEach(([s, e], variant) => {
         let booked = Math.max(e - s, book.minimumBookingS);
         if (g) booked = Math.ceil(booked / g - 1e-9) * g;
-        const volumeBits = Array.from({ length: nCases }, (_, c) => links.reduce((sum, l) => sum + profiles.volume(passId, l, c, s, e, W0), 0));
+        const volumeBits = Array.from({ length: nCases }, (_, c) => links.reduce((sum, l) => sum + linkVolume(passId, l, c, s, e), 0));
         const linkBits: Record<string, number> = {};
-        for (const l of links) linkBits[l] = profiles.volume(passId, l, caseIndex, s, e, W0);
+        for (const l of links) linkBits[l] = linkVolume(passId, l, caseIndex, s, e);
         const dayLinkBits = new Map<number, Record<string, number>>();
         for (let day = utcDayNumber(s); day * SECONDS_PER_DAY < e; day++) {
           const lo = Math.max(s, day * SECONDS_PER_DAY), hi = Math.min(e, (day + 1) * SECONDS_PER_DAY);
           const rec: Record<string, number> = {};
-          for (const l of links) rec[l] = profiles.volume(passId, l, caseIndex, lo, hi, W0);
+          for (const l of links) rec[l] = linkVolume(passId, l, caseIndex, lo, hi);
           dayLinkBits.set(day, rec);
         }
         raw.push({
