@@ -14,3 +14,5 @@ export * from './analysis/index.js';
 export * from './output/index.js';
 export * from './sweep/index.js';
 export * from './jobs/index.js';
+export { planContacts, type ContactPlan, type HorizonResult, type SatelliteDay } from './plan/plan.js';
+export type { Candidate } from './plan/candidates.js';

@@ -38,7 +38,14 @@ export interface RunOptions {
   workers?: number;
   /** With one worker: filled with where the time goes (the benchmark). */
   timings?: SweepTimings;
+  /**
+   * More outputs from the sweep's result (the plan job): files written beside
+   * the run's (listed in summary.json) and sections for report.html.
+   */
+  extra?: (pipeline: PipelineResult) => Promise<ExtraOutputs>;
 }
+
+export interface ExtraOutputs { files: { name: string; text: string }[]; reportSections: string[] }
 
 export interface RunResult {
   outDir: string;
@@ -168,9 +175,13 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
     out.writeFile('daily.csv', await csvText(DAILY_COLUMNS, dailyRows(pipeline.daily, passLinks)));
     // DTSTAMP is the window start, not the wall clock, so two runs give identical files.
     out.writeFile('passes.ics', renderCalendar(passLinks, { dtstampS: scenario.window.startS, calendarName: `${scenario.name} usable windows` }));
-    const fileNames = [...(stepsFile ? [stepsFile] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', 'report.html', 'summary.json'];
+    const extra = opts.extra ? await opts.extra(pipeline) : null;
+    for (const f of extra?.files ?? []) out.writeFile(f.name, f.text);
+    const fileNames = [...(stepsFile ? [stepsFile] : []), 'passes.csv', 'passes.json', 'daily.csv', 'passes.ics', ...(extra?.files ?? []).map((f) => f.name), 'report.html', 'summary.json'];
     const summary = { ...runSummary(scenario, pipeline.daily, fileNames, warnings, passLinks), ...reportContext(scenario) };
-    out.writeFile('report.html', renderReport(reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks)));
+    const report = reportInput(scenario, summary, pipeline, { maskTrade: trade, maskFindings: findings }, passLinks);
+    if (extra?.reportSections.length) report.extraSections = extra.reportSections;
+    out.writeFile('report.html', renderReport(report));
     out.writeFile('summary.json', jsonText(summaryJson(summary)));
     const files = out.commit();
     if (opts.timings) opts.timings.outputsS += (performance.now() - outputsT0) / 1000;

@@ -11,6 +11,7 @@ import type { HorizonMask, Station } from '../geometry/types.js';
 import { formatIsoUtc, parseDuration, parseIsoUtc } from '../orbit/time.js';
 import { resolveClimate, type ResolveContext } from './climate.js';
 import { propagationProblem } from './propagation.js';
+import { resolvePlan } from './plan.js';
 import {
   resolveAntenna, resolveGroundPointing, resolvePolarisation, resolveReceiver, resolveSpacecraftPointing, resolveTransmitter,
 } from './ends.js';
@@ -290,6 +291,7 @@ export function resolveScenarioInput(
       output: { dir, steps },
       exactOrbit,
       sun,
+      plan: resolvePlan(input, weatherCases.map((c) => c.name), src),
       defaultsApplied,
       warnings,
       notices,

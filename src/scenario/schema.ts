@@ -194,12 +194,45 @@ export const elementErrorSchema = obj({
   cross_track_km_per_day: nonNeg().max(1000).optional().meta(d(`Growth of the cross-track error per day (km/day); default ${ELEMENT_ERROR_DEFAULTS.cross_track_km_per_day} (from memory, rough)`)),
 }).meta({ title: 'Element-set error', description: 'Linear growth of the SGP4 error with the age of the elements: the pointing error of program-track antennas and the AOS/LOS uncertainty. All zero: perfect elements' });
 
+// ---------------------------------------------------------------- contact planning (passbudget plan)
+
+export const planAntennaSchema = obj({
+  name: name('Antenna'),
+  terminals: z.array(name('Terminal')).min(1).meta(d('Terminals of the station this antenna carries (served together, one satellite at a time)')),
+  setup_s: nonNeg().max(3600).optional().meta(d('Time needed between two contacts (slew and reconfiguration) (s); default a fixed 30 s allowance plus the worst slew of the mount at its rate limits')),
+}).meta({ title: 'Station antenna' });
+
+export const bookingSchema = obj({
+  price_per_minute: nonNeg().optional().meta(d('Price of one booked minute, in any currency unit (the plan cost is in the same unit); default 0')),
+  minimum_booking_s: nonNeg().max(86_400).optional().meta(d('Shortest booking (s); a shorter contact is paid as this long; default 0')),
+  booking_granularity_s: pos().max(3600).optional().meta(d('Bookings start and end on this grid from the window start, and are paid in whole multiples of it (s); default none')),
+  max_contacts_per_day: z.number().int().min(0).optional().meta(d('Most contacts per UTC day at this station; default unlimited')),
+}).meta({ title: 'Booking terms', description: 'Terms of a rented station, for passbudget plan' });
+
+export const satellitePlanSchema = obj({
+  weight: pos().max(1e6).optional().meta(d('Weight of this satellite\'s volume in the max-volume objective; default 1')),
+  daily_volume_target_bits: z.union([nonNeg(), z.record(name('Link'), nonNeg())]).optional()
+    .meta(d('Volume wanted per UTC day (bits): one number for all links together, or per link name')),
+  min_contacts_per_day: z.number().int().min(0).max(100).optional().meta(d('Fewest contacts wanted per UTC day; default 0')),
+}).meta({ title: 'Satellite demand', description: 'What the plan should give this satellite' });
+
+export const PLAN_OBJECTIVES = ['max-volume', 'min-cost'] as const;
+
+export const planSchema = obj({
+  objective: z.enum(PLAN_OBJECTIVES).optional().meta(d('max-volume: most weighted volume (targets first); min-cost: meet every target at least cost; default max-volume')),
+  weather: z.union([z.literal('clear'), z.number()]).optional().meta(d('Weather case to plan for (one of weather:); default the first')),
+  horizon_days: z.number().int().min(1).max(31).optional().meta(d('Days optimised together; the window is planned horizon by horizon, each after the one before (rolling); default 1')),
+  time_limit_s: pos().max(3600).optional().meta(d('Solver time limit per horizon (s); past it the better of the solver\'s best and a greedy plan is kept and the gap reported; default 20')),
+}).meta({ title: 'Contact plan options' });
+
 export const satelliteSchema = obj({
   name: name('Satellite'),
   elements: z.string().min(1).meta(d('Element file (TLE/3LE, OMM JSON or OMM XML), relative to the scenario file')),
   select: z.string().min(1).optional().meta(d('Object name or catalogue number to pick when the file holds several element sets')),
   links: z.array(linkSchema).min(1),
   element_error: elementErrorSchema.optional(),
+
+  plan: satellitePlanSchema.optional(),
 }).meta({ title: 'Satellite' });
 
 /** Rain-climate zone letters of ITU-R P.837-1 (no I or O). */
@@ -239,6 +272,9 @@ export const stationSchema = obj({
   priority: z.number().int().min(1).optional().meta(d('Priority for the priority network policy (1 = highest); default the order in the file')),
   climate: climateSchema,
   terminals: z.record(name('Terminal'), terminalSchema).meta(d('Ground terminals by name')),
+  antennas: z.array(planAntennaSchema).min(1).optional()
+    .meta(d('Antennas for contact planning (passbudget plan): each carries some of the terminals and serves one satellite at a time; default each terminal its own antenna')),
+  booking: bookingSchema.optional(),
 }).meta({ title: 'Ground station' });
 
 // ---------------------------------------------------------------- run options
@@ -300,6 +336,7 @@ export const scenarioSchema = obj({
   output: outputSchema.optional(),
   sun: sunSchema.optional(),
   exact_orbit: z.boolean().optional().meta(d('SGP4 at every instant instead of interpolating between SGP4 nodes about a minute apart (slower; a check of the interpolation); default false')),
+  plan: planSchema.optional().meta(d('Contact planning options (passbudget plan)')),
 }).meta({
   title: 'passbudget scenario',
   description: 'Satellites, stations, links, window and weather for a pass-by-pass link budget run (YAML or JSON)',

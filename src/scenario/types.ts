@@ -49,6 +49,10 @@ export interface ResolvedScenario {
   exactOrbit: boolean;
   /** Noise from the Sun in the ground antennas' beams; absent (hand-built scenarios) or null: not modelled. */
   sun?: SunNoiseSpec | null;
+  /** Contact-planning terms (passbudget plan); always set by the loader. */
+  plan?: ResolvedPlan;
+  /** Set by the plan job: keep each pass-link's cumulative volume on this grid (s) (sweep/profiles.ts). */
+  volumeProfileGridS?: number;
   defaultsApplied: AppliedDefault[];
   warnings: string[];
   /**
@@ -65,4 +69,40 @@ export const STEPS_CHOICES: readonly StepsChoice[] = ['csv', 'parquet', 'none'];
 /** A steps option as the scenario or the library may give it: a format, or a boolean (true = csv, false = none). */
 export function stepsChoice(v: boolean | StepsChoice): StepsChoice {
   return v === true ? 'csv' : v === false ? 'none' : v;
+}
+
+/** One antenna of a station: it carries some terminals and serves one satellite at a time on all of them. */
+export interface PlanAntenna { station: string; name: string; terminals: string[]; setupS: number }
+
+export interface StationBooking {
+  /** Price of a booked minute (any currency unit). */
+  pricePerMinute: number;
+  minimumBookingS: number;
+  /** Booking grid from the window start (s), or none. */
+  granularityS: number | null;
+  maxContactsPerDay: number | null;
+}
+
+export interface SatelliteDemand {
+  satellite: string;
+  weight: number;
+  /** Bits per UTC day: all links together, or per link name; null: none. */
+  dailyTargetBits: null | { total: number } | { byLink: Record<string, number> };
+  minContactsPerDay: number;
+  /** Ground terminal of each link, by link name. */
+  linkTerminals: Record<string, string>;
+}
+
+/** The contact-planning terms of a scenario (passbudget plan). */
+export interface ResolvedPlan {
+  objective: 'max-volume' | 'min-cost';
+  /** Weather case name planned for. */
+  weather: string;
+  horizonDays: number;
+  timeLimitS: number;
+  antennas: PlanAntenna[];
+  booking: Record<string, StationBooking>;
+  demand: SatelliteDemand[];
+  /** The plan's own defaults (apart from the run's, which they do not change). */
+  defaultsApplied: AppliedDefault[];
 }

@@ -44,6 +44,7 @@ import type { PlannedPass } from './plan.js';
 import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
 import { forEachRow, WINDOW_STEPS, type StepPart, type StepWindow } from './window.js';
 import { createWhatIfCollector } from './whatIfCollect.js';
+import { ProfileBuilder, VolumeProfiles } from './profiles.js';
 
 export interface SweepOptions {
   /** Steps in columns, window by window. */
@@ -109,6 +110,8 @@ interface ItemRun {
   seriesCount: number[];
   /** Index of the pass in the chunk's `passes`. */
   passNo: number;
+  /** Per link, with volume profiles asked for (scenario.volumeProfileGridS). */
+  prof: ProfileBuilder[] | null;
 }
 
 function emptyEnvelope(): Float64Array {
@@ -186,6 +189,8 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     const seriesMax = o.seriesMaxPoints ?? 120;
     const sgp4Before = satOrbit.sgp4Calls;
     const passTable = new PassLinkTable(cases.map((c) => c.name));
+    const profGridS = scenario.volumeProfileGridS;
+    const profiles = profGridS ? new VolumeProfiles(profGridS, nCases) : null;
     const full = o.onWindow !== undefined || o.onStep !== undefined;
     const part: ChunkPartial = {
       satIndex: layout.satIndex, chunk, passes: [], passLinks: { weather: [], strings: [], n: 0, text: new Int32Array(0), times: new Float64Array(0), ints: new Int32Array(0), caseNums: new Float64Array(0), caseInts: new Int32Array(0), weatherNums: new Float64Array(0) }, series: [], daily: [], mask: [], rate: [], envelope: [],
@@ -211,6 +216,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const run: ItemRun = {
         item: it, pass, st, acc: [], series: [], seriesEvery: Math.max(1, Math.ceil(expected / seriesMax)), seriesCount: st.links.map(() => 0),
         passNo: part.passes.length - 1,
+        prof: profGridS ? st.links.map(() => new ProfileBuilder(startS, profGridS, nCases)) : null,
       };
       const info = {
         passId: it.passId, satellite: sat.name, station: st.name, aosS: pass.aosS, tcaS: pass.tcaS, losS: pass.losS,
@@ -234,6 +240,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
         const summary = run.acc[l].finish();
         lr.accPool.push(run.acc[l]);
         passTable.push(summary);
+        if (run.prof && profiles) profiles.push(run.item.passId, lr.link.name, run.prof[l].finish());
         summary.cases.forEach((c, ci) => lr.daily[ci].endPass(run.pass.aosS, c.verdict));
         const s = run.series[l];
         if (s) part.series.push(s);
@@ -245,6 +252,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
       const lr = run.st.links[l];
       const cols = slot.cols[l];
       run.acc[l].addColumns(cols, 0, n, startS, k0, stepS);
+      run.prof?.[l].add(cols, n, k0, stepS);
       const el = slot.stn.elevationDeg;
       const limited = cols.mountLimited;
       for (let ci = 0; ci < nCases; ci++) {
@@ -381,6 +389,7 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
     part.passLinks = passTable.exportState();
     if (whatIf) part.whatIf = whatIf.take();
+    if (profiles) part.profiles = profiles.exportState();
     return part;
   }
 

@@ -10,6 +10,7 @@ import { PassLinkTable } from '../analysis/passTable.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { Pass } from '../passes/types.js';
 import type { SatelliteLayout } from './layout.js';
+import { VolumeProfiles } from './profiles.js';
 import { ENVELOPE_BINS, type ChunkPartial, type PipelineResult, type StationLinkEnvelope, type StationLinkHistograms } from './types.js';
 
 export interface SatelliteMerge {
@@ -75,6 +76,7 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
       }
       for (const p of part.passes) result.passes.push(p);
       result.passLinks.append(part.passLinks);
+      if (part.profiles) result.profiles?.append(part.profiles);
       for (const s of part.series) result.series.push(s);
       part.daily.forEach((d, i) => daily[i].mergeState(d));
       part.mask.forEach((m, i) => hists[i].mask.mergeState(m));
@@ -118,6 +120,7 @@ export function emptyPipelineResult(scenario: ResolvedScenario): PipelineResult 
   return {
     passes: [], passLinks: new PassLinkTable(scenario.weatherCases.map((w) => w.name)), daily: [], histograms: [], series: [], envelopes: [], stationSteps: 0, gridTimes: 0, linkSteps: 0,
     sgp4Calls: 0, engines: [],
+    ...(scenario.volumeProfileGridS ? { profiles: new VolumeProfiles(scenario.volumeProfileGridS, scenario.weatherCases.length) } : {}),
   };
 }
 

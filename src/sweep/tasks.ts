@@ -53,6 +53,7 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   const t = p.passLinks;
   for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts, t.weatherNums]) out.add(a.buffer as ArrayBuffer);
   if (p.whatIf) for (const a of [p.whatIf.parts, p.whatIf.elevation, p.whatIf.cn0]) out.add(a.buffer as ArrayBuffer);
+  if (p.profiles) { out.add(p.profiles.rows.buffer as ArrayBuffer); out.add(p.profiles.values.buffer as ArrayBuffer); }
   return [...out];
 }
 

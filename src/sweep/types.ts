@@ -13,6 +13,7 @@ import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { StepWindow } from './window.js';
 import type { WhatIfChunkData } from './whatIfCollect.js';
+import type { VolumeProfiles, VolumeProfileState } from './profiles.js';
 
 /** One evaluated step as a record (the slow path, for checks and custom sinks); the objects are reused: copy what you keep. */
 export interface StepEvent {
@@ -121,6 +122,8 @@ export interface PipelineResult {
   engines: LinkEngine[];
   /** With PipelineOptions.collectWhatIf: per satellite, the report's what-if columns in run order. */
   whatIf?: WhatIfSatellite[];
+  /** With scenario.volumeProfileGridS: each pass-link's cumulative volume on that grid (sweep/profiles.ts). */
+  profiles?: VolumeProfiles;
 }
 
 /** A satellite's what-if columns (whatIfCollect.ts), its chunks in order; `parts` index `passes`. */
@@ -151,6 +154,8 @@ export interface ChunkPartial {
   rate: (RateHistogramState | null)[];
   /** With collectSeries: per layout station, link and case, [min | max | keyhole min] (ENVELOPE_BINS each); else empty. */
   envelope: Float64Array[];
+  /** With scenario.volumeProfileGridS: the chunk's volume profiles. */
+  profiles?: VolumeProfileState;
   stationSteps: number;
   gridTimes: number;
   linkSteps: number;

@@ -86,7 +86,7 @@ describe('scenario JSON Schema', () => {
     expect(schema.$schema).toBe('https://json-schema.org/draft/2020-12/schema');
     expect(schema.type).toBe('object');
     expect(schema.additionalProperties).toBe(false);
-    expect(Object.keys(schema.properties as object)).toEqual(['name', 'description', 'window', 'weather', 'satellites', 'stations', 'network', 'mask_finder', 'rate_finder', 'output', 'sun', 'exact_orbit']);
+    expect(Object.keys(schema.properties as object)).toEqual(['name', 'description', 'window', 'weather', 'satellites', 'stations', 'network', 'mask_finder', 'rate_finder', 'output', 'sun', 'exact_orbit', 'plan']);
     expect(schema.required).toEqual(['name', 'window', 'satellites', 'stations']);
     expect(JSON.parse(JSON.stringify(schema))).toEqual(schema);
   });

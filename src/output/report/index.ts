@@ -72,6 +72,7 @@ export function renderReport(input: ReportInput): string {
     nav,
     glance(glanceRows(s, passes, input.daily), links, input.requiredMarginDB),
     weatherGlance(s),
+    ...(input.extraSections ?? []),
     whatIfSection(input.whatIf, maxSections),
     ...links.map((link, i) => linkSection({
       link,

@@ -48,4 +48,6 @@ export interface ReportInput {
   title?: string;
   /** The what-if panel's data, or why the page has none (a sentence shown in its place). */
   whatIf?: WhatIfPayload | { missing: string };
+  /** Further sections (HTML, already escaped), placed after "at a glance" (e.g. the contact plan). */
+  extraSections?: string[];
 }
