@@ -147,8 +147,12 @@ function sharedColumns(sh: EffectsShare, sat: SatelliteColumns, satFrom: number,
   }
 }
 
-/** Disc-weighted pattern (1/4π)∫disc (G − G_floor) dΩ against separation, on a uniform grid up to the reach. */
-function sunTable(ant: AntennaPattern): { reachDeg: number; stepDeg: number; values: Float64Array } {
+/**
+ * Disc-weighted pattern (1/4π)∫disc (G − G_floor) dΩ against separation, on a uniform grid up to the reach.
+ * The reach (main lobe plus the disc's radius) is found at once; the values, an integral per grid point,
+ * only when a step first comes within it (most links never meet the Sun: they never pay for the table).
+ */
+function sunTable(ant: AntennaPattern): { reachDeg: number; stepDeg: number; values: () => Float64Array } {
   let floorDBi = Infinity;
   for (let th = 0; th <= 180; th += 0.25) floorDBi = Math.min(floorDBi, ant.gainAtDBi(th));
   const floor = 10 ** (floorDBi / 10);
@@ -159,14 +163,21 @@ function sunTable(ant: AntennaPattern): { reachDeg: number; stepDeg: number; val
   const radius = SUN_DISC_DIAMETER_DEG / 2;
   const reachDeg = lobe === 0 ? 0 : Math.min(180, lobe + radius);
   const stepDeg = reachDeg / (SUN_TABLE_POINTS - 1);
-  const values = new Float64Array(SUN_TABLE_POINTS);
-  if (reachDeg > 0) {
-    for (let j = 0; j < SUN_TABLE_POINTS; j++) {
-      values[j] = discPatternFraction({ separationDeg: Math.min(180, j * stepDeg), discDiameterDeg: SUN_DISC_DIAMETER_DEG, gainLinear });
-    }
-    values[SUN_TABLE_POINTS - 1] = 0;
-  }
-  return { reachDeg, stepDeg, values };
+  let values: Float64Array | null = null;
+  return {
+    reachDeg, stepDeg,
+    values() {
+      if (values) return values;
+      values = new Float64Array(SUN_TABLE_POINTS);
+      if (reachDeg > 0) {
+        for (let j = 0; j < SUN_TABLE_POINTS; j++) {
+          values[j] = discPatternFraction({ separationDeg: Math.min(180, j * stepDeg), discDiameterDeg: SUN_DISC_DIAMETER_DEG, gainLinear });
+        }
+        values[SUN_TABLE_POINTS - 1] = 0;
+      }
+      return values;
+    },
+  };
 }
 
 export function createEffects(o: EffectsOptions): Effects {
@@ -179,7 +190,7 @@ export function createEffects(o: EffectsOptions): Effects {
   const sunNoise = sunModelled && link.direction === 'downlink';
   const notes: string[] = [];
   let brightness = NaN;
-  let table: { reachDeg: number; stepDeg: number; values: Float64Array } = { reachDeg: 0, stepDeg: 1, values: new Float64Array(0) };
+  let table: { reachDeg: number; stepDeg: number; values: () => Float64Array } = { reachDeg: 0, stepDeg: 1, values: () => new Float64Array(0) };
   if (sunNoise) {
     const f = Math.min(100, Math.max(0.1, link.frequencyGHz));
     if (f !== link.frequencyGHz) notes.push(`quiet-Sun brightness taken at ${f} GHz (its table covers 0.1–100 GHz)`);
@@ -209,11 +220,13 @@ export function createEffects(o: EffectsOptions): Effects {
       if (!sunModelled) { sep.fill(NaN, 0, n); noise.fill(0, 0, n); return; }
       sep.set(share.sep.subarray(0, n));
       if (!sunNoise) { noise.fill(0, 0, n); return; }
-      const reach = table.reachDeg, tstep = table.stepDeg, vals = table.values, tb = brightness * 1, hidden = share.sunHidden;
+      const reach = table.reachDeg, tstep = table.stepDeg, tb = brightness * 1, hidden = share.sunHidden;
+      let vals: Float64Array | null = null;
       for (let i = 0; i < n; i++) {
         const d = sep[i];
         let add = 0;
         if (d < reach && hidden[i] === 0) {
+          vals ??= table.values();
           const u = d / tstep;
           const j = Math.floor(u);
           add = tb * (vals[j] + (u - j) * (vals[j + 1] - vals[j]));
