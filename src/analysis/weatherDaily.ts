@@ -67,19 +67,25 @@ export function weatherDayOf(days: Map<string, WeatherDayRow>, dayUtc: string, s
   return days.get(key(dayUtc, satellite, station, link));
 }
 
-/** Per (satellite, station, link) over the run: expected volume and passes per day (over `days` days) and availability. */
+/**
+ * Per (station, link) over the run, every satellite together (as the run's totals per station, which they
+ * stand beside): expected volume and passes per day (over `days` days) and availability; `satellite` names
+ * the satellites counted (joined with " + " when several).
+ */
 export function weatherTotals(passes: Iterable<PassLinkSummary>, days: number): WeatherTotal[] {
-  const by = new Map<string, WeatherTotal & { usableS: number; sweptS: number; bits: number; through: number }>();
+  const by = new Map<string, WeatherTotal & { usableS: number; sweptS: number; bits: number; through: number; sats: Set<string> }>();
   for (const p of passes) {
     if (Number.isNaN(p.expectedVolumeBits)) continue;
-    const k = key('', p.satellite, p.station, p.link);
+    const k = key('', '', p.station, p.link);
     let t = by.get(k);
     if (!t) {
-      t = { satellite: p.satellite, station: p.station, link: p.link, passes: 0, expectedVolumeBitsPerDay: 0, availabilityFraction: NaN, expectedPassesClosingThroughoutPerDay: 0, usableS: 0, sweptS: 0, bits: 0, through: 0 };
+      t = { satellite: '', station: p.station, link: p.link, passes: 0, expectedVolumeBitsPerDay: 0, availabilityFraction: NaN, expectedPassesClosingThroughoutPerDay: 0, usableS: 0, sweptS: 0, bits: 0, through: 0, sats: new Set() };
       by.set(k, t);
     }
+    t.sats.add(p.satellite);
     t.passes++; t.usableS += p.expectedUsableS; t.sweptS += p.sweptS; t.bits += p.expectedVolumeBits; t.through += p.closesThroughoutProbability;
   }
+  for (const t of by.values()) t.satellite = [...t.sats].sort().join(' + ');
   return [...by.values()]
     .sort((a, b) => a.link.localeCompare(b.link) || a.satellite.localeCompare(b.satellite) || a.station.localeCompare(b.station))
     .map((t) => ({
