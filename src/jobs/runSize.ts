@@ -78,7 +78,7 @@ export function elementsInViewFraction(e: ElementSet, latitudeDeg: number, maskD
 /** Average bytes of one numeric steps.csv field with its comma (the demo run's steps.csv averages 6.7). */
 export const STEPS_CSV_BYTES_PER_NUMBER = 7;
 /** steps.parquet's size as a share of steps.csv's (measured on the demo week and the 30-day benchmark W1; see the README). */
-export const STEPS_PARQUET_SHARE = 0.2;
+export const STEPS_PARQUET_SHARE = 0.17;
 
 export interface RunSize {
   /** Instants of the time grid over the whole window (start + k·step). */
