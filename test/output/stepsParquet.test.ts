@@ -20,6 +20,7 @@ import { runPipelineParallel } from '../../src/sweep/parallel.js';
 import { fmt } from '../../src/output/csv.js';
 import { F32_LIMIT, printedValue, stepsParquetColumns } from '../../src/output/stepsParquet.js';
 import { smallScenario } from '../parallel/scenario.js';
+import { rng } from '../rng.js';
 
 const require = createRequire(import.meta.url);
 const parquetWasm = require('parquet-wasm/node') as { readParquet(b: Uint8Array): { intoIPCStream(): Uint8Array } };
@@ -31,17 +32,6 @@ function readParquet(file: string): Table {
   return tableFromIPC(parquetWasm.readParquet(new Uint8Array(readFileSync(file))).intoIPCStream());
 }
 
-/** Deterministic pseudo-random numbers (mulberry32). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('printedValue: the number steps.csv prints', () => {
   it('is the double nearest fmt(v, d) (toFixed), on ties, signed zeros, non-finite values and 200 000 random values', () => {

@@ -18,18 +18,8 @@ import { createStepsCsvFormatter, csvField, fixedDecimal, isoUtcMillis, putFixed
 import { formatIsoUtc } from '../../src/orbit/time.js';
 import { csvText, fmt, type CsvCell } from '../../src/output/csv.js';
 import { smallScenario } from './scenario.js';
+import { rng } from '../rng.js';
 
-/** Deterministic pseudo-random numbers (mulberry32), so a failure reproduces. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('fixedDecimal equals fmt (toFixed)', () => {
   it('on decimal ties, signed zeros, non-finite values and the 1e9 switch-over', () => {

@@ -6,18 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { bruteForce, evaluate, greedy, intervalCliques, type SelectionProblem } from '../../src/plan/model.js';
 import { solveMip } from '../../src/plan/highs.js';
+import { rng } from '../rng.js';
 
-/** Small deterministic generator (mulberry32) so the instances are the same every run. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** A random instance: n intervals on two antennas, caps, and a volume and a count target. */
 function instance(seed: number, n: number): SelectionProblem {
