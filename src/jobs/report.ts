@@ -25,6 +25,7 @@ import { scenarioLayouts } from '../sweep/layout.js';
 import type { WhatIfSatellite } from '../sweep/types.js';
 import { WHATIF_CN0_QUANTUM_DB, WHATIF_ELEVATION_QUANTUM_DEG, WHATIF_MISSING } from '../sweep/whatIfCollect.js';
 import { whatIfPayload, whatIfRefusal } from '../output/report/whatIfData.js';
+import { cellNumber as num } from '../output/csv.js';
 
 const SERIES_MAX_POINTS = 120;
 
@@ -51,7 +52,6 @@ function readCsv(file: string): Record<string, string>[] {
 }
 
 const time = (iso: string | null | undefined): number | null => (iso ? Date.parse(iso) / 1000 : null);
-const num = (s: string | undefined): number => (s === undefined || s === '' ? NaN : Number(s));
 
 interface PassJson {
   pass_id: string; satellite: string; station: string; link: string; direction: 'downlink' | 'uplink';

@@ -52,3 +52,8 @@ export function fmt(value: number | null | undefined, decimals: number): string 
   const s = value.toFixed(decimals);
   return s === `-${(0).toFixed(decimals)}` ? (0).toFixed(decimals) : s;
 }
+
+/** A number cell read back (the inverse of fmt): NaN for an empty or absent cell. */
+export function cellNumber(s: string | undefined): number {
+  return s === undefined || s === '' ? NaN : Number(s);
+}

@@ -33,7 +33,7 @@ import { compress as zstdCompress, init as zstdInit } from '@bokuweb/zstd-wasm';
 import { ByteWriter, ParquetWriter } from 'hyparquet-writer';
 import type { WeatherCase } from '../budget/types.js';
 import type { StepPart, StepWindow } from '../sweep/window.js';
-import { fmt } from './csv.js';
+import { cellNumber, fmt } from './csv.js';
 import { BOOLEAN_FIELDS, CASE_FIELDS, CASE_SOURCE, decimalsFor, STEP_FIELDS, STEP_SOURCE, stepColumns } from './stepsColumns.js';
 
 /**
@@ -115,8 +115,7 @@ export function printedValue(v: number, d: number): number {
       }
     }
   }
-  const t = fmt(v, d);
-  return t === '' ? NaN : Number(t);
+  return cellNumber(fmt(v, d));
 }
 
 // ---------------------------------------------------------------------------

@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { parse } from 'csv-parse';
 import type { StepsFormat } from './stepsSink.js';
 import { STEPS_FILE } from './stepsSink.js';
+import { cellNumber as num } from './csv.js';
 
 /** One steps row as the readers give it (NaN for an empty number). */
 export interface StepRecord {
@@ -33,7 +34,6 @@ export function findStepsFile(dir: string): { file: string; format: StepsFormat 
   return null;
 }
 
-const num = (s: string | undefined): number => (s === undefined || s === '' ? NaN : Number(s));
 
 /** The rows of a steps file, in file order. */
 export function readStepRecords(file: string, format: StepsFormat, weather: readonly string[]): AsyncGenerator<StepRecord> {
