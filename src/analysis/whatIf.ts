@@ -103,7 +103,12 @@ export function changedLink(l: WhatIfLinkSpec, c: WhatIfChange): LinkSpec {
 
 /** Check a change: one line per problem (WHERE: what is wrong (what is allowed)). */
 export function checkWhatIfChange(data: WhatIfData, c: WhatIfChange): string | null {
-  const links = new Set(data.satellites.flatMap((s) => s.linkNames));
+  return checkLinkChange(data.satellites.flatMap((s) => s.linkNames), c);
+}
+
+/** Check a change against the run's link names. */
+export function checkLinkChange(linkNames: readonly string[], c: WhatIfChange): string | null {
+  const links = new Set(linkNames);
   if (!links.has(c.link)) return `link: "${c.link}" is not a link of this run (allowed ${[...links].join(', ')})`;
   const fin = (k: keyof WhatIfChange, lo: number, hi: number) => {
     const v = c[k];
@@ -112,6 +117,73 @@ export function checkWhatIfChange(data: WhatIfData, c: WhatIfChange): string | n
   };
   return fin('eirp_delta_db', -60, 60) ?? fin('gt_delta_db', -60, 60) ?? fin('bit_rate_bps', 1e-3, 1e12) ?? fin('symbol_rate_baud', 1e-3, 1e12)
     ?? fin('required_margin_db', -60, 60) ?? fin('mask_deg', -5, 89);
+}
+
+/** One pass's steps gathered from its parts: quantised mask elevation and C/N0 per station link and case. */
+export interface PassSteps {
+  /** Index into the satellite's passes. */
+  pass: number;
+  station: number;
+  /** Grid index of the first step, and step count. */
+  k0: number;
+  n: number;
+  el: Int32Array;
+  /** The C/N0 column of the station's link l, case ci. */
+  cn0(l: number, ci: number): Int32Array;
+}
+
+/** Each pass's parts (contiguous grid times, in order) gathered, passes in the order of their numbers; passes with no part left out. */
+export function passSteps(s: { parts: Int32Array; elevation: Int32Array; cn0: Int32Array; stations: readonly { links: readonly unknown[] }[]; nCases: number }): PassSteps[] {
+  const { parts, nCases } = s;
+  const partsOf = new Map<number, number[]>();
+  const elOff: number[] = [], cnOff: number[] = [];
+  let eo = 0, co = 0;
+  for (let p = 0; p * 4 < parts.length; p++) {
+    const st = parts[4 * p], pass = parts[4 * p + 1], n = parts[4 * p + 3];
+    let list = partsOf.get(pass);
+    if (!list) partsOf.set(pass, (list = []));
+    list.push(p);
+    elOff.push(eo); cnOff.push(co);
+    eo += n; co += n * s.stations[st].links.length * nCases;
+  }
+  return [...partsOf.keys()].sort((a, b) => a - b).map((pass) => {
+    const ps = partsOf.get(pass)!;
+    const station = parts[4 * ps[0]], k0 = parts[4 * ps[0] + 2];
+    let n = 0;
+    for (const p of ps) n += parts[4 * p + 3];
+    const nl = s.stations[station].links.length;
+    const el = new Int32Array(n);
+    const cn = new Int32Array(n * nl * nCases);
+    let o = 0;
+    for (const p of ps) {
+      const m = parts[4 * p + 3];
+      el.set(s.elevation.subarray(elOff[p], elOff[p] + m), o);
+      for (let lc = 0; lc < nl * nCases; lc++) cn.set(s.cn0.subarray(cnOff[p] + lc * m, cnOff[p] + (lc + 1) * m), lc * n + o);
+      o += m;
+    }
+    return { pass, station, k0, n, el, cn0: (l: number, ci: number) => cn.subarray((l * nCases + ci) * n, (l * nCases + ci + 1) * n) };
+  });
+}
+
+/**
+ * A pass's runs [a, b) of steps at or above `floor` (deg; the whole pass when
+ * undefined) with their AOS/LOS: the pass's own at its ends, else the mask
+ * crossing interpolated linearly in elevation between the grid steps either
+ * side (step i at startS + (k0 + i)·stepS).
+ */
+export function maskRuns(el: Float64Array, n: number, floor: number | undefined, startS: number, k0: number, stepS: number, passAosS: number, passLosS: number):
+  { a: number; b: number; aosS: number; losS: number }[] {
+  const out: { a: number; b: number; aosS: number; losS: number }[] = [];
+  const cross = (i: number, j: number) => startS + (k0 + i) * stepS + ((floor! - el[i]) / (el[j] - el[i])) * stepS;
+  let a = 0;
+  while (a < n) {
+    if (floor !== undefined && !(el[a] >= floor)) { a++; continue; }
+    let b = a + 1;
+    while (b < n && (floor === undefined || el[b] >= floor)) b++;
+    out.push({ a, b, aosS: a === 0 ? passAosS : cross(a - 1, a), losS: b === n ? passLosS : cross(b - 1, b) });
+    a = b;
+  }
+  return out;
 }
 
 interface Sub {
@@ -160,50 +232,22 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
     const linkIndex = sat.stations.map((st) => st.links.findIndex((l) => l.name === change.link));
     const specs = sat.stations.map((st, s) => (linkIndex[s] >= 0 ? changedLink(st.links[linkIndex[s]], change) : null));
     const rules = specs.map((l) => (l ? createCaseRule(l) : null));
-    // Each pass's parts, in order; the pass's steps are contiguous grid times.
-    const partsOf: number[][] = sat.passes.map(() => []);
-    const elOff: number[] = [], cnOff: number[] = [];
-    let eo = 0, co = 0;
-    for (let p = 0; p * 4 < sat.parts.length; p++) {
-      const st = sat.parts[4 * p], pass = sat.parts[4 * p + 1], n = sat.parts[4 * p + 3];
-      partsOf[pass].push(p);
-      elOff.push(eo); cnOff.push(co);
-      eo += n; co += n * sat.stations[st].links.length * nCases;
-    }
     const subs: Sub[] = [];
-    sat.passes.forEach((pass, pi) => {
-      const ps = partsOf[pi];
-      if (ps.length === 0) return;
-      const s = pass.station;
-      const k0 = sat.parts[4 * ps[0] + 2];
-      let n = 0;
-      for (const p of ps) n += sat.parts[4 * p + 3];
+    for (const ps of passSteps({ ...sat, nCases })) {
+      const pass = sat.passes[ps.pass];
+      const { station: s, k0, n } = ps;
       const el = new Float64Array(n);
+      for (let i = 0; i < n; i++) el[i] = ps.el[i] * qEl;
       const cols = linkIndex[s] >= 0 ? Array.from({ length: nCases }, () => caseColumns(n)) : null;
-      let o = 0;
-      const nl = sat.stations[s].links.length;
-      for (const p of ps) {
-        const m = sat.parts[4 * p + 3];
-        for (let i = 0; i < m; i++) el[o + i] = sat.elevation[elOff[p] + i] * qEl;
-        if (cols) {
-          for (let ci = 0; ci < nCases; ci++) {
-            const src = cnOff[p] + (linkIndex[s] * nCases + ci) * m;
-            const dst = cols[ci].cOverN0DBHz;
-            for (let i = 0; i < m; i++) dst[o + i] = sat.cn0[src + i] * qC + dEirp + dGt;
-          }
+      if (cols) {
+        for (let ci = 0; ci < nCases; ci++) {
+          const src = ps.cn0(linkIndex[s], ci), dst = cols[ci].cOverN0DBHz;
+          for (let i = 0; i < n; i++) dst[i] = src[i] * qC + dEirp + dGt;
         }
-        o += m;
+        for (const c of cols) applyCaseRule(rules[s]!, c, n, false);
       }
-      if (cols) for (const c of cols) applyCaseRule(rules[s]!, c, n, false);
       // The pass's runs of steps at or above the raised mask (the whole pass when the mask is unchanged).
-      let a = 0;
-      while (a < n) {
-        if (floor !== undefined && !(el[a] >= floor)) { a++; continue; }
-        let b = a + 1;
-        while (b < n && (floor === undefined || el[b] >= floor)) b++;
-        const cross = (i: number, j: number) => startS + (k0 + i) * stepS + ((floor! - el[i]) / (el[j] - el[i])) * stepS;
-        const aosS = a === 0 ? pass.aosS : cross(a - 1, a);
-        const losS = b === n ? pass.losS : cross(b - 1, b);
+      for (const { a, b, aosS, losS } of maskRuns(el, n, floor, startS, k0, stepS, pass.aosS, pass.losS)) {
         const whole = a === 0 && b === n;
         let sc: LinkColumns | null = null;
         if (cols) {
@@ -216,9 +260,8 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
           })) } as unknown as LinkColumns;
         }
         subs.push({ pass, station: s, k0: k0 + a, n: b - a, aosS, losS, durationS: whole ? pass.durationS : losS - aosS, cols: sc, linkSpec: specs[s] });
-        a = b;
       }
-    });
+    }
     // Station by station: pass summaries and the daily aggregate (the run's accumulators).
     const accOf = sat.stations.map((st, s) => {
       if (!specs[s]) return null;
@@ -288,30 +331,38 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
     }));
   }
 
-  const pack = (rows: DailyRow[]): WhatIfDaily => ({
+  const result: WhatIfResult = { cases: {} };
+  weather.forEach((w, ci) => {
+    const net = sumDailyRows(networkAcc.map((a) => a[ci].rows()));
+    const stations: Record<string, WhatIfDaily> = {};
+    for (const [name, acc] of stationAcc) {
+      const rows = acc[ci].rows();
+      stations[name] = packDaily(rows);
+      for (const r of rows) daily.push(r);
+    }
+    for (const r of net) daily.push(r);
+    result.cases[w] = { network: packDaily(net), stations };
+  });
+  passes.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station));
+  return { result, daily, passes };
+}
+
+/** Daily rows as the hook returns them. */
+export function packDaily(rows: readonly DailyRow[]): WhatIfDaily {
+  return {
     days_utc: rows.map((r) => r.dayUtc),
     daily_volume_bits: rows.map((r) => r.adaptiveVolumeBits ?? r.fixedVolumeBits),
     usable_passes: rows.reduce((a, r) => a + r.usablePasses, 0),
-  });
-  const sumRows = (lists: DailyRow[][]): DailyRow[] => lists[0].map((r, d) => lists.slice(1).reduce((x, l) => ({
+  };
+}
+
+/** Day-by-day sums of several satellites' network rows (the same days). */
+export function sumDailyRows(lists: readonly DailyRow[][]): DailyRow[] {
+  return lists[0].map((r, d) => lists.slice(1).reduce((x, l) => ({
     ...x, passes: x.passes + l[d].passes, usablePasses: x.usablePasses + l[d].usablePasses, usableMinutes: x.usableMinutes + l[d].usableMinutes,
     fixedVolumeBits: x.fixedVolumeBits + l[d].fixedVolumeBits,
     adaptiveVolumeBits: x.adaptiveVolumeBits === null ? null : x.adaptiveVolumeBits + (l[d].adaptiveVolumeBits ?? 0),
   }), r));
-  const result: WhatIfResult = { cases: {} };
-  weather.forEach((w, ci) => {
-    const net = sumRows(networkAcc.map((a) => a[ci].rows()));
-    const stations: Record<string, WhatIfDaily> = {};
-    for (const [name, acc] of stationAcc) {
-      const rows = acc[ci].rows();
-      stations[name] = pack(rows);
-      for (const r of rows) daily.push(r);
-    }
-    for (const r of net) daily.push(r);
-    result.cases[w] = { network: pack(net), stations };
-  });
-  passes.sort((a, b) => a.aosS - b.aosS || a.station.localeCompare(b.station));
-  return { result, daily, passes };
 }
 
 /** The hook: the daily volumes and usable passes with the change applied. */

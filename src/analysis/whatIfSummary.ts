@@ -1,0 +1,422 @@
+/**
+ * The what-if panel for windows too long to carry every step (beyond
+ * WHATIF_MAX_DAYS): the run's per-step columns (sweep/whatIfCollect.ts)
+ * reduced, chunk by chunk, to
+ *   - histograms per station (and for the network), link, weather case and
+ *     UTC day of the steps by elevation bin (1°, the mask-tested elevation)
+ *     and C/N0 bin (0.1 dB): the daily volumes, usable minutes and the worst
+ *     margin are recomputed from these, each bin's steps at its centre C/N0;
+ *   - per pass (and per network contact), link, case and whole-degree mask
+ *     m: the C/N0 of the K-th best step above m, where K is the fewest usable
+ *     steps the verdict rule (analysis/verdict.ts) calls usable for that
+ *     pass's time above m. The usable test is monotone in C/N0, so the pass
+ *     is usable under a change exactly when that step is: usable-pass counts
+ *     are exact (C/N0 to 0.001 dB) for masks in whole degrees.
+ * The network series is, per grid time with a station in view, the in-view
+ * station with the highest C/N0 (its elevation for the mask): exact for
+ * fixed-rate links under either policy and for adaptive links under
+ * highest-rate when the stations share the link's rule; under a priority
+ * policy an adaptive link's network rate is the best station's (an upper
+ * bound). A raised mask moves no pass to another day (the run's AOS day).
+ * Browser-clean: the page bundles this module and applies the run's own
+ * per-step rule (budget/caseRule.ts) to the bins.
+ */
+import { applyCaseRule, createCaseRule } from '../budget/caseRule.js';
+import type { NetworkPolicy } from '../scenario/types.js';
+import { utcDayLabel, utcDayNumber, utcDaysOfWindow } from './utcDay.js';
+import { DEFAULT_VERDICT_RULE, type VerdictRule } from './verdict.js';
+import { NETWORK_STATION } from './dailyAccumulator.js';
+import type { DailyRow } from './types.js';
+import { changedLink, checkLinkChange, maskRuns, packDaily, passSteps, sumDailyRows, type WhatIfChange, type WhatIfDaily, type WhatIfLinkSpec, type WhatIfPassInfo, type WhatIfResult } from './whatIf.js';
+
+/** Bin widths of the summary's histograms. */
+export const SUMMARY_ELEVATION_BIN_DEG = 1;
+export const SUMMARY_CN0_BIN_DB = 0.1;
+/** An integer that is no value (a step with no C/N0, a pass that can never be usable). */
+const MISSING = -2147483648;
+const EL_OFF = 1000, CN_OFF = 1_000_000, CN_SPAN = 2_000_001;
+
+/** What a satellite's (or one chunk's) per-step columns are summarised from. */
+export interface SummaryInput {
+  startS: number;
+  endS: number;
+  stepS: number;
+  nCases: number;
+  elevationQuantumDeg: number;
+  cn0QuantumDB: number;
+  /** The satellite's link names (the index `link` of groups and items). */
+  linkNames: readonly string[];
+  /** Layout stations: their links' names in column order. */
+  stations: readonly { links: readonly { name: string }[] }[];
+  /** The passes the parts index (AOS, LOS, time above the mask). */
+  passes: readonly { aosS: number; losS: number; durationS: number }[];
+  parts: Int32Array;
+  elevation: Int32Array;
+  cn0: Int32Array;
+  rule?: VerdictRule;
+}
+
+/** A summary (of a chunk, or merged): plain typed arrays. */
+export interface WhatIfSummaryPart {
+  /** Per group: series (layout station, −1 for the network), link, case, day index, cell count (5 integers). */
+  groups: Int32Array;
+  /** Per cell of the groups in order: elevation bin (whole degrees), C/N0 bin (0.1 dB units), steps. */
+  cellEl: Int32Array;
+  cellCn: Int32Array;
+  cellCount: Int32Array;
+  /** Per pass or contact item: series, link, case, day index, pass number (−1 for the network), first mask mA, values nM (7 integers). */
+  items: Int32Array;
+  /** Per item, nM values (C/N0 in cn0Quantum units, MISSING: never usable): value 0 with the run's mask (or any mask ≤ mA), value j with mask mA + j. */
+  tStar: Int32Array;
+}
+
+/** The fewest usable steps whose time passes the verdict rule's "usable" test for `aboveS` above the mask. */
+function neededSteps(aboveS: number, stepS: number, rule: VerdictRule): number {
+  let k = 0, s = 0;
+  // The sum as the accumulators add it (one step at a time).
+  while (!(k >= 1 && s >= rule.minUsableS && s >= rule.minUsableFraction * aboveS)) { k++; s += stepS; }
+  return k;
+}
+
+/** Per whole-degree mask from floor(min elevation): the K-th best C/N0 above it (the items' tStar values). */
+function thresholds(elBin: Int32Array, n: number, cn: Int32Array, order: Int32Array, need: Int32Array, mA: number, nM: number, out: number[]): void {
+  let m = 0;
+  for (let i = 0; i < n; i++) order[i] = i;
+  order.subarray(0, n).sort((a, b) => cn[b] - cn[a]);
+  for (let j = 0; j < nM; j++) {
+    const mask = j === 0 ? -Infinity : mA + j;
+    const k = need[j];
+    let got = MISSING;
+    m = 0;
+    for (let q = 0; q < n; q++) {
+      const i = order[q];
+      if (cn[i] === MISSING) break;
+      if (elBin[i] < mask) continue;
+      if (++m === k) { got = cn[i]; break; }
+    }
+    out.push(got);
+  }
+}
+
+type CellMap = Map<number, Map<number, number>>;
+
+/** Group key: series, link, case, day (with their counts). */
+const groupKey = (series: number, link: number, c: number, day: number, nL: number, nC: number, nD: number) => (((series + 1) * nL + link) * nC + c) * nD + day;
+
+/** Steps [from, to) of a series into its day's group cells (runs of equal cells counted once). */
+function addCells(cells: CellMap, key0: number, dayOf: (i: number) => number, elBin: Int32Array, cnBin: (i: number) => number, from: number, to: number): void {
+  let i = from;
+  while (i < to) {
+    const d = dayOf(i), e = elBin[i], c = cnBin(i);
+    let j = i + 1;
+    while (j < to && elBin[j] === e && cnBin(j) === c && dayOf(j) === d) j++;
+    if (c !== MISSING) {
+      const g = key0 + d;
+      let m = cells.get(g);
+      if (!m) cells.set(g, (m = new Map()));
+      const ck = (e + EL_OFF) * CN_SPAN + (c + CN_OFF);
+      m.set(ck, (m.get(ck) ?? 0) + (j - i));
+    }
+    i = j;
+  }
+}
+
+function cellsToPart(cells: CellMap, nL: number, nC: number, nD: number, items: number[], tStar: number[]): WhatIfSummaryPart {
+  const keys = [...cells.keys()].sort((a, b) => a - b);
+  const groups: number[] = [], el: number[] = [], cn: number[] = [], count: number[] = [];
+  for (const g of keys) {
+    const m = cells.get(g)!;
+    const day = g % nD, c = Math.floor(g / nD) % nC, link = Math.floor(g / (nD * nC)) % nL, series = Math.floor(g / (nD * nC * nL)) - 1;
+    const ck = [...m.keys()].sort((a, b) => a - b);
+    groups.push(series, link, c, day, ck.length);
+    for (const k of ck) {
+      el.push(Math.floor(k / CN_SPAN) - EL_OFF);
+      cn.push((k % CN_SPAN) - CN_OFF);
+      count.push(m.get(k)!);
+    }
+  }
+  return {
+    groups: Int32Array.from(groups), cellEl: Int32Array.from(el), cellCn: Int32Array.from(cn), cellCount: Int32Array.from(count),
+    items: Int32Array.from(items), tStar: Int32Array.from(tStar),
+  };
+}
+
+/** Summarise per-step columns (a chunk's, or a whole satellite's): the histograms and the pass and contact thresholds. */
+export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
+  const rule = s.rule ?? DEFAULT_VERDICT_RULE;
+  const { startS, stepS, nCases } = s;
+  const { firstDay, count: nD } = utcDaysOfWindow(s.startS, s.endS);
+  const nL = Math.max(1, s.linkNames.length), nC = Math.max(1, nCases);
+  const dayAt = (k: number) => Math.min(nD - 1, Math.max(0, utcDayNumber(startS + k * stepS) - firstDay));
+  const per = Math.round(SUMMARY_ELEVATION_BIN_DEG / s.elevationQuantumDeg);
+  const cnPer = Math.round(SUMMARY_CN0_BIN_DB / s.cn0QuantumDB);
+  const bin = (v: number) => (v === MISSING ? MISSING : Math.round(v / cnPer));
+  const qEl = s.elevationQuantumDeg;
+  const linkOf = s.stations.map((st) => s.linkNames.map((name) => st.links.findIndex((l) => l.name === name)));
+  const cells: CellMap = new Map();
+  const items: number[] = [], tStar: number[] = [];
+  const steps = passSteps(s);
+
+  // Station passes.
+  for (const ps of steps) {
+    const { station, k0, n, el } = ps;
+    const pass = s.passes[ps.pass];
+    const elBin = new Int32Array(n);
+    let lo = Infinity, hi = -Infinity;
+    for (let i = 0; i < n; i++) { elBin[i] = Math.floor(el[i] / per); if (elBin[i] < lo) lo = elBin[i]; if (elBin[i] > hi) hi = elBin[i]; }
+    const mA = lo, nM = hi - lo + 1;
+    const need = new Int32Array(nM);
+    const elDeg = Float64Array.from(el, (v) => v * qEl);
+    for (let j = 0; j < nM; j++) {
+      const above = j === 0 ? pass.durationS
+        : maskRuns(elDeg, n, mA + j, startS, k0, stepS, pass.aosS, pass.losS).reduce((a, r) => a + (r.a === 0 && r.b === n ? pass.durationS : r.losS - r.aosS), 0);
+      need[j] = neededSteps(above, stepS, rule);
+    }
+    const order = new Int32Array(n);
+    const dayOf = (i: number) => dayAt(k0 + i);
+    const aosDay = Math.min(nD - 1, Math.max(0, utcDayNumber(pass.aosS) - firstDay));
+    for (let li = 0; li < s.linkNames.length; li++) {
+      const l = linkOf[station][li];
+      if (l < 0) continue;
+      for (let ci = 0; ci < nCases; ci++) {
+        const cn = ps.cn0(l, ci);
+        addCells(cells, groupKey(station, li, ci, 0, nL, nC, nD), dayOf, elBin, (i) => bin(cn[i]), 0, n);
+        items.push(station, li, ci, aosDay, ps.pass, mA, nM);
+        thresholds(elBin, n, cn, order, need, mA, nM, tStar);
+      }
+    }
+  }
+
+  // The network: per group of passes overlapping in grid time, per link, the grid times with a station in view.
+  const sorted = [...steps].sort((a, b) => a.k0 - b.k0);
+  let i = 0;
+  while (i < sorted.length) {
+    let last = sorted[i].k0 + sorted[i].n - 1;
+    let j = i + 1;
+    while (j < sorted.length && sorted[j].k0 <= last) { last = Math.max(last, sorted[j].k0 + sorted[j].n - 1); j++; }
+    const kStart = sorted[i].k0, span = last - kStart + 1;
+    for (let li = 0; li < s.linkNames.length; li++) {
+      const inView = new Uint8Array(span);
+      const best = new Int32Array(span * nCases).fill(MISSING);
+      const bestEl = new Int32Array(span * nCases);
+      let any = false;
+      for (let g = i; g < j; g++) {
+        const ps = sorted[g];
+        const l = linkOf[ps.station][li];
+        if (l < 0) continue;
+        any = true;
+        for (let ci = 0; ci < nCases; ci++) {
+          const cn = ps.cn0(l, ci);
+          for (let q = 0; q < ps.n; q++) {
+            const k = ps.k0 - kStart + q, x = k * nCases + ci;
+            if (inView[k] === 0 && ci === 0) bestEl.fill(ps.el[q], k * nCases, k * nCases + nCases);
+            const v = cn[q];
+            if (v !== MISSING && (best[x] === MISSING || v > best[x])) { best[x] = v; bestEl[x] = ps.el[q]; }
+          }
+        }
+        for (let q = 0; q < ps.n; q++) inView[ps.k0 - kStart + q] = 1;
+      }
+      if (!any) continue;
+      const ks: number[] = [];
+      for (let k = 0; k < span; k++) if (inView[k] === 1) ks.push(k);
+      const n = ks.length;
+      const dayOf = (q: number) => dayAt(kStart + ks[q]);
+      const order = new Int32Array(n);
+      for (let ci = 0; ci < nCases; ci++) {
+        const elBin = Int32Array.from(ks, (k) => Math.floor(bestEl[k * nCases + ci] / per));
+        const cn = Int32Array.from(ks, (k) => best[k * nCases + ci]);
+        addCells(cells, groupKey(-1, li, ci, 0, nL, nC, nD), dayOf, elBin, (q) => bin(cn[q]), 0, n);
+        let lo = Infinity, hi = -Infinity;
+        for (const e of elBin) { if (e < lo) lo = e; if (e > hi) hi = e; }
+        const mA = lo, nM = hi - lo + 1;
+        // A contact's time in view: its grid times (above the mask) one step each, as the network adds them.
+        const need = new Int32Array(nM);
+        for (let jm = 0; jm < nM; jm++) {
+          let t = 0;
+          for (let q = 0; q < n; q++) if (jm === 0 || elBin[q] >= mA + jm) t += stepS;
+          need[jm] = neededSteps(t, stepS, rule);
+        }
+        items.push(-1, li, ci, dayOf(0), -1, mA, nM);
+        thresholds(elBin, n, cn, order, need, mA, nM, tStar);
+      }
+    }
+    i = j;
+  }
+  return cellsToPart(cells, nL, nC, nD, items, tStar);
+}
+
+/** Chunk summaries merged in chunk order: cells of a group summed, items in order (pass numbers made satellite-wide). */
+export interface SummaryMerger {
+  add(part: WhatIfSummaryPart, passOffset: number): void;
+  finish(): WhatIfSummaryPart;
+}
+
+export function createSummaryMerger(nLinks: number, nCases: number, startS: number, endS: number): SummaryMerger {
+  const nD = utcDaysOfWindow(startS, endS).count, nL = Math.max(1, nLinks), nC = Math.max(1, nCases);
+  const cells: CellMap = new Map();
+  const items: number[] = [], tStar: number[] = [];
+  return {
+    add(p, passOffset) {
+      let c = 0;
+      for (let g = 0; g < p.groups.length; g += 5) {
+        const key = groupKey(p.groups[g], p.groups[g + 1], p.groups[g + 2], p.groups[g + 3], nL, nC, nD);
+        let m = cells.get(key);
+        if (!m) cells.set(key, (m = new Map()));
+        for (let e = 0; e < p.groups[g + 4]; e++, c++) {
+          const ck = (p.cellEl[c] + EL_OFF) * CN_SPAN + (p.cellCn[c] + CN_OFF);
+          m.set(ck, (m.get(ck) ?? 0) + p.cellCount[c]);
+        }
+      }
+      for (let q = 0; q < p.items.length; q += 7) {
+        for (let x = 0; x < 7; x++) items.push(x === 4 && p.items[q + 4] >= 0 ? p.items[q + 4] + passOffset : p.items[q + x]);
+      }
+      for (const v of p.tStar) tStar.push(v);
+    },
+    finish: () => cellsToPart(cells, nL, nC, nD, items, tStar),
+  };
+}
+
+// ---- In the page: the daily figures and pass verdicts with a change, from a summary. ----
+
+export interface WhatIfSummarySatellite {
+  satellite: string;
+  linkNames: string[];
+  stations: { name: string; rank0: number; rank1: number; links: WhatIfLinkSpec[] }[];
+  passes: WhatIfPassInfo[];
+  summary: WhatIfSummaryPart;
+}
+
+export interface WhatIfSummaryData {
+  kind: 'summary';
+  startS: number;
+  endS: number;
+  stepS: number;
+  weather: string[];
+  policy: NetworkPolicy;
+  cn0QuantumDB: number;
+  elevationBinDeg: number;
+  cn0BinDB: number;
+  satellites: WhatIfSummarySatellite[];
+}
+
+export interface WhatIfSummaryDetail {
+  result: WhatIfResult;
+  /** Station and network daily rows (network rows have station NETWORK_STATION; no longest gap: NaN). */
+  daily: DailyRow[];
+  /** Per case: the worst step margin of the link at any station (dB; bins at their centre). */
+  worstMarginDB: Record<string, number>;
+  /** The drawn passes' verdicts under the change: usable or not (null: no step above the mask). */
+  verdicts: Map<string, Record<string, boolean | null>>;
+}
+
+/** Recompute one link with a change from a summary. */
+export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChange): WhatIfSummaryDetail {
+  const problem = checkLinkChange(data.satellites.flatMap((s) => s.linkNames), change);
+  if (problem) throw new Error(`passbudgetWhatIf: ${problem}`);
+  const { startS, endS, stepS, weather } = data;
+  const { firstDay, count: nD } = utcDaysOfWindow(startS, endS);
+  const nCases = weather.length;
+  const shift = (change.eirp_delta_db ?? 0) + (change.gt_delta_db ?? 0);
+  // Whole-degree mask: a step is above it when its elevation bin is.
+  const mask = change.mask_deg === undefined ? undefined : Math.ceil(change.mask_deg - 1e-9);
+  const qC = data.cn0QuantumDB, binDB = data.cn0BinDB;
+  type Sums = { passes: number; usablePasses: number; usableS: number; bits: number };
+  const blank = (): Sums[][] => weather.map(() => Array.from({ length: nD }, () => ({ passes: 0, usablePasses: 0, usableS: 0, bits: 0 })));
+  const stationSums = new Map<string, { sums: Sums[][]; adaptive: boolean; satellite: string }>();
+  const netSums: { sums: Sums[][]; adaptive: boolean; satellite: string }[] = [];
+  const worst: Record<string, number> = Object.fromEntries(weather.map((w) => [w, Infinity]));
+  const verdicts = new Map<string, Record<string, boolean | null>>();
+  const one = { cOverN0DBHz: new Float64Array(1), esN0DB: new Float64Array(1), ebN0DB: new Float64Array(1), requiredEbN0DB: new Float64Array(1), marginDB: new Float64Array(1), usable: new Uint8Array(1), mode: new Int16Array(1), informationRateBps: new Float64Array(1) };
+
+  for (const sat of data.satellites) {
+    const li = sat.linkNames.indexOf(change.link);
+    if (li < 0) continue;
+    const specs = sat.stations.map((st) => { const l = st.links.find((x) => x.name === change.link); return l ? changedLink(l, change) : null; });
+    const rules = specs.map((l) => (l ? createCaseRule(l) : null));
+    const si = specs.findIndex((l) => l !== null);
+    const protoRule = rules[si]!;
+    const adaptive = specs[si]!.modcod.kind === 'adaptive';
+    const ruleOf = (series: number) => (series < 0 ? protoRule : rules[series]);
+    const sumsOf = (series: number): Sums[][] => {
+      if (series < 0) {
+        let e = netSums.find((x) => x.satellite === sat.satellite);
+        if (!e) netSums.push((e = { sums: blank(), adaptive, satellite: sat.satellite }));
+        return e.sums;
+      }
+      const name = sat.stations[series].name;
+      let e = stationSums.get(name);
+      if (!e) stationSums.set(name, (e = { sums: blank(), adaptive, satellite: sat.satellite }));
+      return e.sums;
+    };
+    const { groups, cellEl, cellCn, cellCount, items, tStar } = sat.summary;
+    // Histograms: each group's bins above the mask through the link's rule at their centre C/N0.
+    let c = 0;
+    for (let g = 0; g < groups.length; g += 5) {
+      const series = groups[g], link = groups[g + 1], ci = groups[g + 2], day = groups[g + 3], nCells = groups[g + 4];
+      if (link !== li || !ruleOf(series)) { c += nCells; continue; }
+      const cols = { cOverN0DBHz: new Float64Array(nCells), esN0DB: new Float64Array(nCells), ebN0DB: new Float64Array(nCells), requiredEbN0DB: new Float64Array(nCells), marginDB: new Float64Array(nCells), usable: new Uint8Array(nCells), mode: new Int16Array(nCells), informationRateBps: new Float64Array(nCells) };
+      for (let e = 0; e < nCells; e++) cols.cOverN0DBHz[e] = cellCn[c + e] * binDB + shift;
+      applyCaseRule(ruleOf(series)!, cols, nCells, false);
+      const sum = sumsOf(series)[ci][day];
+      for (let e = 0; e < nCells; e++) {
+        if (mask !== undefined && cellEl[c + e] < mask) continue;
+        const t = cellCount[c + e] * stepS;
+        if (series >= 0 && cols.marginDB[e] < worst[weather[ci]]) worst[weather[ci]] = cols.marginDB[e];
+        if (cols.usable[e] !== 1) continue;
+        sum.usableS += t;
+        sum.bits += t * cols.informationRateBps[e];
+      }
+      c += nCells;
+    }
+    // Passes and contacts: usable when their K-th best step is.
+    let o = 0;
+    for (let q = 0; q < items.length; q += 7) {
+      const series = items[q], link = items[q + 1], ci = items[q + 2], day = items[q + 3], pass = items[q + 4], mA = items[q + 5], nM = items[q + 6];
+      const at = o;
+      o += nM;
+      if (link !== li || !ruleOf(series)) continue;
+      const j = mask === undefined || mask <= mA ? 0 : mask - mA;
+      let usable: boolean | null = null;
+      if (j < nM) {
+        const t = tStar[at + j];
+        usable = false;
+        if (t !== MISSING) {
+          one.cOverN0DBHz[0] = t * qC + shift;
+          applyCaseRule(ruleOf(series)!, one, 1, false);
+          usable = one.usable[0] === 1;
+        }
+        const sum = sumsOf(series)[ci][day];
+        sum.passes++;
+        if (usable) sum.usablePasses++;
+      }
+      if (pass >= 0) {
+        const id = sat.passes[pass].passId;
+        let v = verdicts.get(id);
+        if (!v) verdicts.set(id, (v = {}));
+        v[weather[ci]] = usable;
+      }
+    }
+  }
+
+  const rowsOf = (sums: Sums[][], station: string, satellite: string, adaptive: boolean, ci: number): DailyRow[] => sums[ci].map((s, d) => ({
+    dayUtc: utcDayLabel(firstDay + d), station, satellite, link: change.link, weather: weather[ci],
+    passes: s.passes, usablePasses: s.usablePasses, usableMinutes: s.usableS / 60,
+    fixedVolumeBits: adaptive ? 0 : s.bits, adaptiveVolumeBits: adaptive ? s.bits : null, longestGapH: NaN,
+  }));
+  const daily: DailyRow[] = [];
+  const result: WhatIfResult = { cases: {} };
+  for (let ci = 0; ci < nCases; ci++) {
+    const stations: Record<string, WhatIfDaily> = {};
+    for (const [name, e] of stationSums) {
+      const rows = rowsOf(e.sums, name, e.satellite, e.adaptive, ci);
+      stations[name] = packDaily(rows);
+      daily.push(...rows);
+    }
+    // Several satellites with this link: the network's days summed.
+    const net = sumDailyRows(netSums.map((e) => rowsOf(e.sums, NETWORK_STATION, e.satellite, e.adaptive, ci)));
+    daily.push(...net);
+    result.cases[weather[ci]] = { network: packDaily(net), stations };
+  }
+  for (const w of weather) if (!Number.isFinite(worst[w])) worst[w] = NaN;
+  return { result, daily, worstMarginDB: worst, verdicts };
+}
