@@ -4,20 +4,23 @@
  * reduced, chunk by chunk, to
  *   - histograms per station (and for the network), link, weather case and
  *     UTC day of the steps by elevation bin (1°, the mask-tested elevation)
- *     and C/N0 bin (0.1 dB): the daily volumes, usable minutes and the worst
- *     margin are recomputed from these, each bin's steps at its centre C/N0;
+ *     and C/N0 bin (0.25 dB): the daily volumes, usable minutes and the worst
+ *     margin are recomputed from these, each bin's steps taken as spread
+ *     evenly across it (the rule applied at 8 points across the bin);
  *   - per pass (and per network contact), link, case and whole-degree mask
  *     m: the C/N0 of the K-th best step above m, where K is the fewest usable
  *     steps the verdict rule (analysis/verdict.ts) calls usable for that
  *     pass's time above m. The usable test is monotone in C/N0, so the pass
  *     is usable under a change exactly when that step is: usable-pass counts
- *     are exact (C/N0 to 0.001 dB) for masks in whole degrees.
- * The network series is, per grid time with a station in view, the in-view
- * station with the highest C/N0 (its elevation for the mask): exact for
- * fixed-rate links under either policy and for adaptive links under
+ *     are exact (that C/N0 to 0.001 dB) for masks in whole degrees.
+ * The network's histograms take, per grid time with a station in view, the
+ * in-view station with the highest C/N0 (its elevation for the mask): exact
+ * for fixed-rate links under either policy and for adaptive links under
  * highest-rate when the stations share the link's rule; under a priority
  * policy an adaptive link's network rate is the best station's (an upper
- * bound). A raised mask moves no pass to another day (the run's AOS day).
+ * bound). A network contact's thresholds take, per mask, the best station
+ * above it, and a mask that splits a contact gives each part its own. A
+ * raised mask moves no pass to another day (the run's AOS day).
  * Browser-clean: the page bundles this module and applies the run's own
  * per-step rule (budget/caseRule.ts) to the bins.
  */
@@ -27,13 +30,19 @@ import { utcDayLabel, utcDayNumber, utcDaysOfWindow } from './utcDay.js';
 import { DEFAULT_VERDICT_RULE, type VerdictRule } from './verdict.js';
 import { NETWORK_STATION } from './dailyAccumulator.js';
 import type { DailyRow } from './types.js';
-import { changedLink, checkLinkChange, maskRuns, packDaily, passSteps, sumDailyRows, type WhatIfChange, type WhatIfDaily, type WhatIfLinkSpec, type WhatIfPassInfo, type WhatIfResult } from './whatIf.js';
+import { changedLink, checkLinkChange, decodeIntColumn, encodeIntColumn, maskRuns, packDaily, passSteps, sumDailyRows, type WhatIfChange, type WhatIfDaily, type WhatIfLinkSpec, type WhatIfPassInfo, type WhatIfResult } from './whatIf.js';
 
 /** Bin widths of the summary's histograms. */
 export const SUMMARY_ELEVATION_BIN_DEG = 1;
-export const SUMMARY_CN0_BIN_DB = 0.1;
+export const SUMMARY_CN0_BIN_DB = 0.25;
+/** Quantum of the pass thresholds (dB). */
+export const SUMMARY_THRESHOLD_QUANTUM_DB = 0.001;
 /** An integer that is no value (a step with no C/N0, a pass that can never be usable). */
 const MISSING = -2147483648;
+/** A network contact's value at a mask that splits it (its parts follow as items of their own). */
+const SPLIT = -2147483647;
+/** Points per C/N0 bin at which the page applies the rule. */
+const SUB = 8;
 const EL_OFF = 1000, CN_OFF = 1_000_000, CN_SPAN = 2_000_001;
 
 /** What a satellite's (or one chunk's) per-step columns are summarised from. */
@@ -54,6 +63,8 @@ export interface SummaryInput {
   elevation: Int32Array;
   cn0: Int32Array;
   rule?: VerdictRule;
+  /** C/N0 bin width (dB; default SUMMARY_CN0_BIN_DB), a multiple of cn0QuantumDB. */
+  cn0BinDB?: number;
 }
 
 /** A summary (of a chunk, or merged): plain typed arrays. */
@@ -64,9 +75,12 @@ export interface WhatIfSummaryPart {
   cellEl: Int32Array;
   cellCn: Int32Array;
   cellCount: Int32Array;
-  /** Per pass or contact item: series, link, case, day index, pass number (−1 for the network), first mask mA, values nM (7 integers). */
+  /**
+   * Per pass or contact item: series, link, case, day index, pass number (−1 for a network contact; −2 − j for
+   * the part of a contact that mask index j splits, counted at that mask only), first mask mA, values nM (7 integers).
+   */
   items: Int32Array;
-  /** Per item, nM values (C/N0 in cn0Quantum units, MISSING: never usable): value 0 with the run's mask (or any mask ≤ mA), value j with mask mA + j. */
+  /** Per item, nM values (C/N0 in SUMMARY_THRESHOLD_QUANTUM_DB units, MISSING: never usable, SPLIT: see the parts): value 0 with the run's mask (or any mask ≤ mA), value j with mask mA + j. */
   tStar: Int32Array;
 }
 
@@ -79,7 +93,7 @@ function neededSteps(aboveS: number, stepS: number, rule: VerdictRule): number {
 }
 
 /** Per whole-degree mask from floor(min elevation): the K-th best C/N0 above it (the items' tStar values). */
-function thresholds(elBin: Int32Array, n: number, cn: Int32Array, order: Int32Array, need: Int32Array, mA: number, nM: number, out: number[]): void {
+function thresholds(elBin: Int32Array, n: number, cn: Int32Array, order: Int32Array, need: Int32Array, mA: number, nM: number, tPer: number, out: number[]): void {
   let m = 0;
   for (let i = 0; i < n; i++) order[i] = i;
   order.subarray(0, n).sort((a, b) => cn[b] - cn[a]);
@@ -92,7 +106,7 @@ function thresholds(elBin: Int32Array, n: number, cn: Int32Array, order: Int32Ar
       const i = order[q];
       if (cn[i] === MISSING) break;
       if (elBin[i] < mask) continue;
-      if (++m === k) { got = cn[i]; break; }
+      if (++m === k) { got = Math.round(cn[i] / tPer); break; }
     }
     out.push(got);
   }
@@ -149,7 +163,8 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
   const nL = Math.max(1, s.linkNames.length), nC = Math.max(1, nCases);
   const dayAt = (k: number) => Math.min(nD - 1, Math.max(0, utcDayNumber(startS + k * stepS) - firstDay));
   const per = Math.round(SUMMARY_ELEVATION_BIN_DEG / s.elevationQuantumDeg);
-  const cnPer = Math.round(SUMMARY_CN0_BIN_DB / s.cn0QuantumDB);
+  const cnPer = Math.round((s.cn0BinDB ?? SUMMARY_CN0_BIN_DB) / s.cn0QuantumDB);
+  const tPer = Math.round(SUMMARY_THRESHOLD_QUANTUM_DB / s.cn0QuantumDB);
   const bin = (v: number) => (v === MISSING ? MISSING : Math.round(v / cnPer));
   const qEl = s.elevationQuantumDeg;
   const linkOf = s.stations.map((st) => s.linkNames.map((name) => st.links.findIndex((l) => l.name === name)));
@@ -182,7 +197,7 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
         const cn = ps.cn0(l, ci);
         addCells(cells, groupKey(station, li, ci, 0, nL, nC, nD), dayOf, elBin, (i) => bin(cn[i]), 0, n);
         items.push(station, li, ci, aosDay, ps.pass, mA, nM);
-        thresholds(elBin, n, cn, order, need, mA, nM, tStar);
+        thresholds(elBin, n, cn, order, need, mA, nM, tPer, tStar);
       }
     }
   }
@@ -197,6 +212,7 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
     const kStart = sorted[i].k0, span = last - kStart + 1;
     for (let li = 0; li < s.linkNames.length; li++) {
       const inView = new Uint8Array(span);
+      const maxEl = new Int32Array(span);
       const best = new Int32Array(span * nCases).fill(MISSING);
       const bestEl = new Int32Array(span * nCases);
       let any = false;
@@ -205,39 +221,79 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
         const l = linkOf[ps.station][li];
         if (l < 0) continue;
         any = true;
+        for (let q = 0; q < ps.n; q++) {
+          const k = ps.k0 - kStart + q;
+          if (inView[k] === 0) { maxEl[k] = ps.el[q]; bestEl.fill(ps.el[q], k * nCases, k * nCases + nCases); } else if (ps.el[q] > maxEl[k]) maxEl[k] = ps.el[q];
+          inView[k] = 1;
+        }
         for (let ci = 0; ci < nCases; ci++) {
           const cn = ps.cn0(l, ci);
           for (let q = 0; q < ps.n; q++) {
-            const k = ps.k0 - kStart + q, x = k * nCases + ci;
-            if (inView[k] === 0 && ci === 0) bestEl.fill(ps.el[q], k * nCases, k * nCases + nCases);
+            const x = (ps.k0 - kStart + q) * nCases + ci;
             const v = cn[q];
             if (v !== MISSING && (best[x] === MISSING || v > best[x])) { best[x] = v; bestEl[x] = ps.el[q]; }
           }
         }
-        for (let q = 0; q < ps.n; q++) inView[ps.k0 - kStart + q] = 1;
       }
       if (!any) continue;
       const ks: number[] = [];
       for (let k = 0; k < span; k++) if (inView[k] === 1) ks.push(k);
       const n = ks.length;
       const dayOf = (q: number) => dayAt(kStart + ks[q]);
-      const order = new Int32Array(n);
+      // A contact is in view while some station is above the mask; a raised mask can split it into several.
+      const viewBin = Int32Array.from(ks, (k) => Math.floor(maxEl[k] / per));
+      let lo = Infinity, hi = -Infinity;
+      for (const e of viewBin) { if (e < lo) lo = e; if (e > hi) hi = e; }
+      const mA = lo, nM = hi - lo + 1;
+      const runsAt = (jm: number): number[][] => {
+        const out: number[][] = [];
+        let cur: number[] = [];
+        for (let q = 0; q < n; q++) {
+          const kept = jm === 0 || viewBin[q] >= mA + jm;
+          if (kept && (jm === 0 || cur.length === 0 || ks[q] === ks[cur[cur.length - 1]] + 1)) { cur.push(q); continue; }
+          if (cur.length > 0) out.push(cur);
+          cur = kept ? [q] : [];
+        }
+        if (cur.length > 0) out.push(cur);
+        return out;
+      };
+      const runs = Array.from({ length: nM }, (_, jm) => runsAt(jm));
       for (let ci = 0; ci < nCases; ci++) {
         const elBin = Int32Array.from(ks, (k) => Math.floor(bestEl[k * nCases + ci] / per));
         const cn = Int32Array.from(ks, (k) => best[k * nCases + ci]);
         addCells(cells, groupKey(-1, li, ci, 0, nL, nC, nD), dayOf, elBin, (q) => bin(cn[q]), 0, n);
-        let lo = Infinity, hi = -Infinity;
-        for (const e of elBin) { if (e < lo) lo = e; if (e > hi) hi = e; }
-        const mA = lo, nM = hi - lo + 1;
-        // A contact's time in view: its grid times (above the mask) one step each, as the network adds them.
-        const need = new Int32Array(nM);
-        for (let jm = 0; jm < nM; jm++) {
-          let t = 0;
-          for (let q = 0; q < n; q++) if (jm === 0 || elBin[q] >= mA + jm) t += stepS;
-          need[jm] = neededSteps(t, stepS, rule);
-        }
+        // Per mask: the K-th best of the run's grid times (the best C/N0 of the stations above the mask;
+        // each grid time one step of time in view, as the network adds them). Several runs: SPLIT, and an item each.
+        // Per grid time at a mask: the best C/N0 of the stations above it.
+        const withLink = sorted.slice(i, j).filter((ps) => linkOf[ps.station][li] >= 0);
+        const cols = withLink.map((ps) => ps.cn0(linkOf[ps.station][li], ci));
+        const valueAt = (q: number, m: number): number => {
+          if (m === -Infinity) return cn[q];
+          let v = MISSING;
+          const k = ks[q] + kStart;
+          withLink.forEach((ps, x) => {
+            const at = k - ps.k0;
+            if (at < 0 || at >= ps.n || Math.floor(ps.el[at] / per) < m) return;
+            const c = cols[x][at];
+            if (c !== MISSING && (v === MISSING || c > v)) v = c;
+          });
+          return v;
+        };
+        const kth = (run: number[], m: number): number => {
+          const v = run.map((q) => valueAt(q, m)).filter((x) => x !== MISSING).sort((x, y) => y - x);
+          const k = neededSteps(run.reduce((t) => t + stepS, 0), stepS, rule);
+          return k <= v.length ? Math.round(v[k - 1] / tPer) : MISSING;
+        };
         items.push(-1, li, ci, dayOf(0), -1, mA, nM);
-        thresholds(elBin, n, cn, order, need, mA, nM, tStar);
+        const parts: number[][] = [];
+        for (let jm = 0; jm < nM; jm++) {
+          const m = jm === 0 ? -Infinity : mA + jm;
+          const rs = runs[jm];
+          if (rs.length === 1) { tStar.push(kth(rs[0], m)); continue; }
+          tStar.push(SPLIT);
+          for (const run of rs) parts.push([dayOf(run[0]), jm, kth(run, m)]);
+        }
+        for (const [day, jm, t] of parts) { items.push(-1, li, ci, day, -2 - jm, mA, 1); tStar.push(t); }
       }
     }
     i = j;
@@ -293,7 +349,8 @@ export interface WhatIfSummaryData {
   stepS: number;
   weather: string[];
   policy: NetworkPolicy;
-  cn0QuantumDB: number;
+  /** Quantum of the pass thresholds (dB). */
+  thresholdQuantumDB: number;
   elevationBinDeg: number;
   cn0BinDB: number;
   satellites: WhatIfSummarySatellite[];
@@ -319,7 +376,7 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
   const shift = (change.eirp_delta_db ?? 0) + (change.gt_delta_db ?? 0);
   // Whole-degree mask: a step is above it when its elevation bin is.
   const mask = change.mask_deg === undefined ? undefined : Math.ceil(change.mask_deg - 1e-9);
-  const qC = data.cn0QuantumDB, binDB = data.cn0BinDB;
+  const qC = data.thresholdQuantumDB, binDB = data.cn0BinDB;
   type Sums = { passes: number; usablePasses: number; usableS: number; bits: number };
   const blank = (): Sums[][] => weather.map(() => Array.from({ length: nD }, () => ({ passes: 0, usablePasses: 0, usableS: 0, bits: 0 })));
   const stationSums = new Map<string, { sums: Sums[][]; adaptive: boolean; satellite: string }>();
@@ -354,17 +411,21 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
     for (let g = 0; g < groups.length; g += 5) {
       const series = groups[g], link = groups[g + 1], ci = groups[g + 2], day = groups[g + 3], nCells = groups[g + 4];
       if (link !== li || !ruleOf(series)) { c += nCells; continue; }
-      const cols = { cOverN0DBHz: new Float64Array(nCells), esN0DB: new Float64Array(nCells), ebN0DB: new Float64Array(nCells), requiredEbN0DB: new Float64Array(nCells), marginDB: new Float64Array(nCells), usable: new Uint8Array(nCells), mode: new Int16Array(nCells), informationRateBps: new Float64Array(nCells) };
-      for (let e = 0; e < nCells; e++) cols.cOverN0DBHz[e] = cellCn[c + e] * binDB + shift;
-      applyCaseRule(ruleOf(series)!, cols, nCells, false);
+      // Each bin's steps taken as spread evenly across it: the rule at SUB points across the bin, each a SUB-th of its steps.
+      const m = nCells * SUB;
+      const cols = { cOverN0DBHz: new Float64Array(m), esN0DB: new Float64Array(m), ebN0DB: new Float64Array(m), requiredEbN0DB: new Float64Array(m), marginDB: new Float64Array(m), usable: new Uint8Array(m), mode: new Int16Array(m), informationRateBps: new Float64Array(m) };
+      for (let e = 0; e < nCells; e++) for (let u = 0; u < SUB; u++) cols.cOverN0DBHz[e * SUB + u] = (cellCn[c + e] + (u + 0.5) / SUB - 0.5) * binDB + shift;
+      applyCaseRule(ruleOf(series)!, cols, m, false);
       const sum = sumsOf(series)[ci][day];
       for (let e = 0; e < nCells; e++) {
         if (mask !== undefined && cellEl[c + e] < mask) continue;
-        const t = cellCount[c + e] * stepS;
-        if (series >= 0 && cols.marginDB[e] < worst[weather[ci]]) worst[weather[ci]] = cols.marginDB[e];
-        if (cols.usable[e] !== 1) continue;
-        sum.usableS += t;
-        sum.bits += t * cols.informationRateBps[e];
+        const t = (cellCount[c + e] * stepS) / SUB;
+        if (series >= 0 && cols.marginDB[e * SUB] < worst[weather[ci]]) worst[weather[ci]] = cols.marginDB[e * SUB];
+        for (let u = e * SUB; u < (e + 1) * SUB; u++) {
+          if (cols.usable[u] !== 1) continue;
+          sum.usableS += t;
+          sum.bits += t * cols.informationRateBps[u];
+        }
       }
       c += nCells;
     }
@@ -376,9 +437,12 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
       o += nM;
       if (link !== li || !ruleOf(series)) continue;
       const j = mask === undefined || mask <= mA ? 0 : mask - mA;
+      // A network contact's part at one mask (pass −2 − j): counted only at that mask.
+      const only = pass <= -2 ? -2 - pass : -1;
+      if (only >= 0 && only !== j) continue;
       let usable: boolean | null = null;
-      if (j < nM) {
-        const t = tStar[at + j];
+      if (only >= 0 || (j < nM && tStar[at + j] !== SPLIT)) {
+        const t = tStar[at + (only >= 0 ? 0 : j)];
         usable = false;
         if (t !== MISSING) {
           one.cOverN0DBHz[0] = t * qC + shift;
@@ -419,4 +483,26 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
   }
   for (const w of weather) if (!Number.isFinite(worst[w])) worst[w] = NaN;
   return { result, daily, worstMarginDB: worst, verdicts };
+}
+
+// ---- The page's compact form: each integer column as encodeIntColumn text with its length. ----
+
+const SUMMARY_COLUMNS = ['groups', 'cellEl', 'cellCn', 'cellCount', 'items', 'tStar'] as const;
+
+export interface WhatIfSummaryPayload extends Omit<WhatIfSummaryData, 'satellites'> {
+  satellites: (Omit<WhatIfSummarySatellite, 'summary'> & { summary: Record<(typeof SUMMARY_COLUMNS)[number], { text: string; n: number }> })[];
+}
+
+export function encodeWhatIfSummary(p: WhatIfSummaryPart, toBase64: (bytes: Uint8Array) => string): WhatIfSummaryPayload['satellites'][number]['summary'] {
+  return Object.fromEntries(SUMMARY_COLUMNS.map((k) => [k, { text: encodeIntColumn(p[k], toBase64), n: p[k].length }])) as WhatIfSummaryPayload['satellites'][number]['summary'];
+}
+
+export function decodeWhatIfSummaryPayload(p: WhatIfSummaryPayload, fromBase64: (s: string) => Uint8Array): WhatIfSummaryData {
+  return {
+    ...p,
+    satellites: p.satellites.map((s) => ({
+      ...s,
+      summary: Object.fromEntries(SUMMARY_COLUMNS.map((k) => [k, decodeIntColumn(s.summary[k].text, s.summary[k].n, fromBase64)])) as unknown as WhatIfSummaryPart,
+    })),
+  };
 }

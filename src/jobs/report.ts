@@ -18,13 +18,14 @@ import { envelopeAdd, ENVELOPE_BINS, type StationLinkEnvelope } from '../sweep/t
 import { linkEnvelopes } from './run.js';
 import type { RunSummary } from '../analysis/types.js';
 import type { WhatIfPayload } from '../analysis/whatIf.js';
+import { summariseWhatIf, type WhatIfSummaryPayload } from '../analysis/whatIfSummary.js';
 import type { Pass } from '../passes/types.js';
 import { loadScenario } from '../scenario/index.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import { scenarioLayouts } from '../sweep/layout.js';
 import type { WhatIfSatellite } from '../sweep/types.js';
 import { WHATIF_CN0_QUANTUM_DB, WHATIF_ELEVATION_QUANTUM_DEG, WHATIF_MISSING } from '../sweep/whatIfCollect.js';
-import { whatIfPayload, whatIfRefusal } from '../output/report/whatIfData.js';
+import { whatIfCollectMode, whatIfPayload } from '../output/report/whatIfData.js';
 import { cellNumber as num } from '../output/csv.js';
 
 const SERIES_MAX_POINTS = 120;
@@ -216,15 +217,13 @@ function whatIfMissing(dir: string, what: string): string {
  * geometric elevation (the run's own report uses the apparent one).
  */
 function whatIfFromSteps(summary: RunSummary, passes: PassLinkSummary[]):
-  { missing: string } | { onRow: (r: StepRecord) => void; finish: () => WhatIfPayload | { missing: string } } {
+  { missing: string } | { onRow: (r: StepRecord) => void; finish: () => WhatIfPayload | WhatIfSummaryPayload | { missing: string } } {
   let scenario: ResolvedScenario;
   try {
     scenario = loadScenario(summary.scenarioFile);
   } catch (e) {
     return { missing: whatIfMissing(summary.scenarioFile, `no readable scenario (${(e as Error).message.split('\n')[0]})`) };
   }
-  const refusal = whatIfRefusal(scenario);
-  if (refusal) return { missing: refusal };
   const qEl = 1 / WHATIF_ELEVATION_QUANTUM_DEG, qC = 1 / WHATIF_CN0_QUANTUM_DB;
   const q = (x: number, k: number) => (Number.isFinite(x) ? Math.round(x * k) : WHATIF_MISSING);
   const layouts = scenarioLayouts(scenario);
@@ -265,11 +264,19 @@ function whatIfFromSteps(summary: RunSummary, passes: PassLinkSummary[]):
             for (let ci = 0; ci < cases.length; ci++) for (let i = 0; i < n; i++) cn0.push(cols?.[ci][i] ?? WHATIF_MISSING);
           }
         }
-        return {
+        const sat: WhatIfSatellite = {
           satIndex: layout.satIndex, satellite: layout.satellite,
           stations: layout.stations.map((st) => ({ name: st.entry.station.name, stationIndex: st.stationIndex, links: st.links })),
           passes: list, passIds: ids, parts: Int32Array.from(parts), elevation: Int32Array.from(el), cn0: Int32Array.from(cn0),
         };
+        if (whatIfCollectMode(scenario) !== 'summary') return sat;
+        // A long window: the summary, from the whole satellite at once (the run makes it chunk by chunk; the same sums).
+        const { endS } = scenario.window;
+        const summary = summariseWhatIf({
+          startS, endS, stepS, nCases: cases.length, elevationQuantumDeg: WHATIF_ELEVATION_QUANTUM_DEG, cn0QuantumDB: WHATIF_CN0_QUANTUM_DB,
+          linkNames: layout.linkNames, stations: layout.stations, passes: list, parts: sat.parts, elevation: sat.elevation, cn0: sat.cn0,
+        });
+        return { ...sat, parts: new Int32Array(0), elevation: new Int32Array(0), cn0: new Int32Array(0), summary };
       });
       return whatIfPayload(scenario, sats);
     },

@@ -17,7 +17,7 @@ import { csvText } from '../output/csv.js';
 import { jsonText, summaryJson } from '../output/json.js';
 import { renderCalendar } from '../output/ics.js';
 import { renderReport } from '../output/report/index.js';
-import { whatIfPayload, whatIfRefusal } from '../output/report/whatIfData.js';
+import { whatIfCollectMode, whatIfPayload } from '../output/report/whatIfData.js';
 import type { LinkEnvelope, ReportInput } from '../output/report/types.js';
 import { stepsChoice, type ResolvedScenario, type StepsChoice } from '../scenario/types.js';
 import {
@@ -122,7 +122,7 @@ export function reportInput(
   return {
     summary, passes: passLinks, daily: p.daily, series: p.series, ...reportContext(scenario), ...extra,
     ...(p.envelopes.length > 0 ? { envelopes: linkEnvelopes(p.envelopes) } : {}),
-    whatIf: p.whatIf ? whatIfPayload(scenario, p.whatIf) : { missing: whatIfRefusal(scenario) ?? 'The run collected no what-if columns.' },
+    whatIf: p.whatIf ? whatIfPayload(scenario, p.whatIf) : { missing: 'The run collected no what-if columns.' },
   };
 }
 
@@ -156,7 +156,7 @@ export async function runScenario(scenario: ResolvedScenario, opts: RunOptions =
       scenario,
       workers: opts.workers,
       collectSeries: true,
-      collectWhatIf: whatIfRefusal(scenario) === null,
+      collectWhatIf: whatIfCollectMode(scenario),
       stepsOut: stepsFile ? out.stream(stepsFile) : null,
       stepsFormat: steps === 'none' ? undefined : steps,
       onProgress: progress.update,

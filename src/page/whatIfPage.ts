@@ -7,6 +7,7 @@
  */
 import { decodeWhatIfPayload, whatIf, whatIfDetail, type WhatIfChange, type WhatIfData, type WhatIfDetail, type WhatIfPayload } from '../analysis/whatIf.js';
 import { NETWORK_STATION } from '../analysis/dailyAccumulator.js';
+import { decodeWhatIfSummaryPayload, whatIfSummaryDetail, type WhatIfSummaryData, type WhatIfSummaryDetail, type WhatIfSummaryPayload } from '../analysis/whatIfSummary.js';
 
 const fromBase64 = (s: string): Uint8Array => {
   const bin = atob(s);
@@ -30,11 +31,16 @@ function bits(x: number): string {
 
 interface Figures { volumePerDay: number; usablePassesPerDay: number; usableMinPerDay: number; worstMarginDB: number }
 
-function figures(d: WhatIfDetail, weather: string, days: number): Figures {
+/** Either recomputation's detail: every step (WhatIfDetail) or the long window's summary. */
+type Detail = WhatIfDetail | WhatIfSummaryDetail;
+const isSummary = (d: Detail): d is WhatIfSummaryDetail => 'verdicts' in d;
+
+function figures(d: Detail, weather: string, days: number): Figures {
   const net = d.daily.filter((r) => r.station === NETWORK_STATION && r.weather === weather);
   const sum = (f: (r: (typeof net)[number]) => number) => net.reduce((a, r) => a + f(r), 0);
   let worst = Infinity;
-  for (const p of d.passes) for (const c of p.cases) if (c.weather === weather && c.minMarginDB < worst) worst = c.minMarginDB;
+  if (isSummary(d)) worst = d.worstMarginDB[weather];
+  else for (const p of d.passes) for (const c of p.cases) if (c.weather === weather && c.minMarginDB < worst) worst = c.minMarginDB;
   return {
     volumePerDay: sum((r) => r.adaptiveVolumeBits ?? r.fixedVolumeBits) / days,
     usablePassesPerDay: sum((r) => r.usablePasses) / days,
@@ -64,7 +70,13 @@ function barChart(days: string[], run: number[], now: number[]): string {
 
 interface Control { key: keyof WhatIfChange; label: string; run: number; step: number; unit: string }
 
-function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
+/** A summary verdict as a word. */
+const said = (v: boolean | null | undefined) => (v === true ? 'usable' : v === false ? 'not usable' : v === null ? 'below the mask' : '–');
+
+function setup(data: WhatIfData | WhatIfSummaryData, root: HTMLElement, maxPasses: number): void {
+  const summary = 'kind' in data && data.kind === 'summary';
+  const detailOf = (c: WhatIfChange): Detail => (summary ? whatIfSummaryDetail(data as WhatIfSummaryData, c) : whatIfDetail(data as WhatIfData, c));
+  const passInfo = new Map(data.satellites.flatMap((s) => s.passes.map((p) => [p.passId, { ...p, station: s.stations[p.station]?.name ?? '' }] as const)));
   const days = Math.max(1, (data.endS - data.startS) / 86_400);
   const links = [...new Set(data.satellites.flatMap((s) => s.linkNames))];
   for (const link of links) {
@@ -86,7 +98,7 @@ function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
 <p class="whatif-controls">${inputs} <label>weather <select data-key="weather">${data.weather.map((w) => `<option>${esc(w)}</option>`).join('')}</select></label> <button type="button" data-reset>reset</button></p>
 <div class="whatif-out"></div>`;
     root.appendChild(box);
-    const base = whatIfDetail(data, { link });
+    const base = detailOf({ link });
     // The link's drawn pass sections: each shows its what-if verdict and volume beside the run's while a control is moved.
     const drawn = new Map<string, HTMLElement>();
     document.querySelectorAll<HTMLElement>('details.pass[data-link]').forEach((d) => {
@@ -111,30 +123,47 @@ function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
     const draw = () => {
       const { change, changed, weather } = read();
       marker.hidden = !changed;
-      let now: WhatIfDetail;
-      try { now = changed ? whatIfDetail(data, change) : base; } catch (e) { out.innerHTML = `<p class="bad">${esc((e as Error).message)}</p>`; return; }
+      let now: Detail;
+      try { now = changed ? detailOf(change) : base; } catch (e) { out.innerHTML = `<p class="bad">${esc((e as Error).message)}</p>`; return; }
       const a = figures(base, weather, days), b = figures(now, weather, days);
       const row = (label: string, x: string, y: string) => `<tr><th>${esc(label)}</th><td class="num">${x}</td><td class="num"><strong>${y}</strong></td></tr>`;
       const r0 = base.result.cases[weather].network, r1 = now.result.cases[weather].network;
-      const shown = (d: WhatIfDetail) => d.passes.slice(0, maxPasses);
-      const runPass = new Map(shown(base).map((p) => [p.passId, p]));
-      const passRows = shown(now).map((p) => {
-        const c = p.cases.find((x) => x.weather === weather)!;
-        const r = runPass.get(p.passId)?.cases.find((x) => x.weather === weather);
-        const v = c.adaptiveVolumeBits ?? c.fixedVolumeBits;
-        return `<tr><td>${esc(p.passId)}</td><td>${esc(p.station)}</td><td>${esc(new Date(p.aosS * 1000).toISOString().slice(0, 19).replace('T', ' '))}</td>`
-          + `<td class="verdict-${r?.verdict ?? 'unusable'}">${esc(r?.verdict ?? '–')}</td><td class="verdict-${c.verdict}">${esc(c.verdict)}</td>`
-          + `<td class="num">${esc(r ? bits(r.adaptiveVolumeBits ?? r.fixedVolumeBits) : '–')}</td><td class="num">${esc(bits(v))}</td></tr>`;
-      }).join('');
-      const seen = new Set<string>();
-      for (const p of now.passes) {
-        const span = drawn.get(p.passId);
-        if (!span || seen.has(p.passId)) continue;
-        seen.add(p.passId);
-        const c = p.cases.find((x) => x.weather === weather)!;
-        span.innerHTML = changed ? ` · what-if ${esc(weather)}: <span class="verdict-${c.verdict}">${esc(c.verdict)}</span>, ${esc(bits(c.adaptiveVolumeBits ?? c.fixedVolumeBits))}` : '';
+      let passRows = '';
+      if (isSummary(now) && isSummary(base)) {
+        // The summary knows each pass's verdict (usable or not), not its volume.
+        let k = 0;
+        for (const [id, v] of now.verdicts) {
+          if (k++ >= maxPasses) break;
+          const p = passInfo.get(id);
+          const r = base.verdicts.get(id)?.[weather], w = v[weather];
+          passRows += `<tr><td>${esc(id)}</td><td>${esc(p?.station ?? '')}</td><td>${esc(p ? new Date(p.aosS * 1000).toISOString().slice(0, 19).replace('T', ' ') : '')}</td>`
+            + `<td class="verdict-${r ? 'usable' : 'unusable'}">${esc(said(r))}</td><td class="verdict-${w ? 'usable' : 'unusable'}">${esc(said(w))}</td><td class="num">–</td><td class="num">–</td></tr>`;
+        }
+        for (const [id, span] of drawn) {
+          const w = now.verdicts.get(id)?.[weather];
+          span.innerHTML = changed ? ` · what-if ${esc(weather)}: <span class="verdict-${w ? 'usable' : 'unusable'}">${esc(said(w))}</span>` : '';
+        }
+      } else if (!isSummary(now) && !isSummary(base)) {
+        const shown = (d: WhatIfDetail) => d.passes.slice(0, maxPasses);
+        const runPass = new Map(shown(base).map((p) => [p.passId, p]));
+        passRows = shown(now).map((p) => {
+          const c = p.cases.find((x) => x.weather === weather)!;
+          const r = runPass.get(p.passId)?.cases.find((x) => x.weather === weather);
+          const v = c.adaptiveVolumeBits ?? c.fixedVolumeBits;
+          return `<tr><td>${esc(p.passId)}</td><td>${esc(p.station)}</td><td>${esc(new Date(p.aosS * 1000).toISOString().slice(0, 19).replace('T', ' '))}</td>`
+            + `<td class="verdict-${r?.verdict ?? 'unusable'}">${esc(r?.verdict ?? '–')}</td><td class="verdict-${c.verdict}">${esc(c.verdict)}</td>`
+            + `<td class="num">${esc(r ? bits(r.adaptiveVolumeBits ?? r.fixedVolumeBits) : '–')}</td><td class="num">${esc(bits(v))}</td></tr>`;
+        }).join('');
+        const seen = new Set<string>();
+        for (const p of now.passes) {
+          const span = drawn.get(p.passId);
+          if (!span || seen.has(p.passId)) continue;
+          seen.add(p.passId);
+          const c = p.cases.find((x) => x.weather === weather)!;
+          span.innerHTML = changed ? ` · what-if ${esc(weather)}: <span class="verdict-${c.verdict}">${esc(c.verdict)}</span>, ${esc(bits(c.adaptiveVolumeBits ?? c.fixedVolumeBits))}` : '';
+        }
+        if (changed) for (const [id, span] of drawn) if (!seen.has(id)) span.textContent = ' · what-if: below the mask';
       }
-      if (changed) for (const [id, span] of drawn) if (!seen.has(id)) span.textContent = ' · what-if: below the mask';
       out.innerHTML = `<div class="charts"><figure><table class="kv whatif-figures"><thead><tr><th></th><th class="num">run</th><th class="num">what-if</th></tr></thead><tbody>`
         + row('network volume per day', esc(bits(a.volumePerDay)), esc(bits(b.volumePerDay)))
         + row('usable passes per day', fixed(a.usablePassesPerDay, 1), fixed(b.usablePassesPerDay, 1))
@@ -157,8 +186,10 @@ function setup(data: WhatIfData, root: HTMLElement, maxPasses: number): void {
 const block = document.getElementById('passbudget-whatif-data');
 const root = document.getElementById('whatif-panel');
 if (block && root) {
-  const data = decodeWhatIfPayload(JSON.parse(block.textContent ?? '{}') as WhatIfPayload, fromBase64);
-  (window as unknown as { passbudgetWhatIf: (c: WhatIfChange) => unknown }).passbudgetWhatIf = (c) => whatIf(data, c);
+  const raw = JSON.parse(block.textContent ?? '{}') as WhatIfPayload | WhatIfSummaryPayload;
+  const data = 'kind' in raw && raw.kind === 'summary' ? decodeWhatIfSummaryPayload(raw, fromBase64) : decodeWhatIfPayload(raw as WhatIfPayload, fromBase64);
+  (window as unknown as { passbudgetWhatIf: (c: WhatIfChange) => unknown }).passbudgetWhatIf = (c) =>
+    ('kind' in data ? whatIfSummaryDetail(data, c).result : whatIf(data, c));
   // The pass sections come after this script in the page: draw once the document is parsed.
   const start = () => setup(data, root, Number(root.dataset.maxPasses ?? '300'));
   if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', start); else start();

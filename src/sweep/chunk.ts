@@ -43,7 +43,8 @@ import type { SatelliteLayout } from './layout.js';
 import type { PlannedPass } from './plan.js';
 import { envelopeAdd, ENVELOPE_BINS, type ChunkPartial, type SweepTimings, type PassSeriesData, type StepEvent, type StepSink } from './types.js';
 import { forEachRow, WINDOW_STEPS, type StepPart, type StepWindow } from './window.js';
-import { createWhatIfCollector } from './whatIfCollect.js';
+import { createWhatIfCollector, WHATIF_CN0_QUANTUM_DB, WHATIF_ELEVATION_QUANTUM_DEG } from './whatIfCollect.js';
+import { summariseWhatIf } from '../analysis/whatIfSummary.js';
 import { ProfileBuilder, VolumeProfiles } from './profiles.js';
 
 export interface SweepOptions {
@@ -57,8 +58,11 @@ export interface SweepOptions {
   onPassDone?: (durationS: number) => void;
   /** Filled with where the time goes. */
   timings?: SweepTimings;
-  /** Collect the report's what-if columns (whatIfCollect.ts) into the chunk's `whatIf`. */
-  collectWhatIf?: boolean;
+  /**
+   * Collect the report's what-if columns (whatIfCollect.ts) into the chunk's `whatIf`; 'summary': reduce them
+   * to the long-window summary (analysis/whatIfSummary.ts) in `whatIfSummary`, keeping only the pass ids.
+   */
+  collectWhatIf?: boolean | 'summary';
 }
 
 export interface Sweeper {
@@ -388,7 +392,19 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     for (const st of net.takeStates()) part.daily.push(st);
     part.sgp4Calls = satOrbit.sgp4Calls - sgp4Before;
     part.passLinks = passTable.exportState();
-    if (whatIf) part.whatIf = whatIf.take();
+    if (whatIf) {
+      const d = whatIf.take();
+      if (o.collectWhatIf === 'summary') {
+        const { startS, endS, stepS } = scenario.window;
+        part.whatIfSummary = summariseWhatIf({
+          startS, endS, stepS, nCases, elevationQuantumDeg: WHATIF_ELEVATION_QUANTUM_DEG, cn0QuantumDB: WHATIF_CN0_QUANTUM_DB,
+          linkNames: layout.linkNames, stations: layout.stations, passes: part.passes, parts: d.parts, elevation: d.elevation, cn0: d.cn0,
+        });
+        part.whatIf = { parts: new Int32Array(0), elevation: new Int32Array(0), cn0: new Int32Array(0), passIds: d.passIds };
+      } else {
+        part.whatIf = d;
+      }
+    }
     if (profiles) part.profiles = profiles.exportState();
     return part;
   }

@@ -5,6 +5,7 @@
 import { createDailyAccumulator, NETWORK_STATION, type DailyAccumulator } from '../analysis/dailyAccumulator.js';
 import { createMaskHistogram } from '../analysis/maskHistogram.js';
 import { createRateHistogram } from '../analysis/rateHistogram.js';
+import { createSummaryMerger, type SummaryMerger } from '../analysis/whatIfSummary.js';
 import type { DailyRow } from '../analysis/types.js';
 import { PassLinkTable } from '../analysis/passTable.js';
 import type { ResolvedScenario } from '../scenario/types.js';
@@ -63,10 +64,12 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
   const wiPasses: Pass[] = [];
   const wiIds: string[] = [];
   const wiParts: Int32Array[] = [], wiEl: Int32Array[] = [], wiCn0: Int32Array[] = [];
+  let summary: SummaryMerger | null = null;
   return {
     add(part) {
       if (part.chunk !== next) throw new Error(`pipeline merge: chunk ${part.chunk} arrived, expected ${next}`);
       next++;
+      if (part.whatIfSummary) (summary ??= createSummaryMerger(layout.linkNames.length, cases.length, startS, endS)).add(part.whatIfSummary, wiPasses.length);
       if (part.whatIf) {
         const parts = part.whatIf.parts;
         for (let q = 1; q < parts.length; q += 4) parts[q] += wiPasses.length;
@@ -101,6 +104,7 @@ export function createSatelliteMerge(scenario: ResolvedScenario, layout: Satelli
           satIndex: layout.satIndex, satellite: layout.satellite,
           stations: layout.stations.map((st) => ({ name: st.entry.station.name, stationIndex: st.stationIndex, links: st.links })),
           passes: wiPasses, passIds: wiIds, parts: concatInt32(wiParts), elevation: concatInt32(wiEl), cn0: concatInt32(wiCn0),
+          ...(summary ? { summary: summary.finish() } : {}),
         });
       }
       const rows = daily.map((d) => d.rows());

@@ -53,8 +53,8 @@ export interface ParallelPipelineOptions {
   workerScript?: string;
   /** With workers ≤ 1: filled with where the time goes. */
   timings?: SweepTimings;
-  /** Collect the report's what-if columns (PipelineResult.whatIf). */
-  collectWhatIf?: boolean;
+  /** Collect the report's what-if columns (PipelineResult.whatIf); 'summary': the long-window summary. */
+  collectWhatIf?: boolean | 'summary';
 }
 
 /** Young-generation (nursery) size of each worker thread (MB). */
@@ -95,7 +95,7 @@ export async function runPipelineParallel(o: ParallelPipelineOptions): Promise<P
   }
 
   const stepsDir = writer ? mkdtempSync(join(tmpdir(), 'passbudget-steps-')) : null;
-  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir, stepsFormat, collectWhatIf: o.collectWhatIf === true };
+  const init: WorkerInit = { scenario, maskFloorDeg: o.maskFloorDeg, collectSeries: o.collectSeries === true, seriesMaxPoints: o.seriesMaxPoints, stepsDir, stepsFormat, collectWhatIf: o.collectWhatIf ?? false };
   const script = o.workerScript ?? defaultWorkerScript();
   const pool: Worker[] = [];
   try {

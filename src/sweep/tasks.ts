@@ -23,7 +23,7 @@ export interface WorkerInit {
   maskFloorDeg?: number;
   collectSeries: boolean;
   seriesMaxPoints?: number;
-  collectWhatIf?: boolean;
+  collectWhatIf?: boolean | 'summary';
   /** Folder for the chunks' steps rows; null when no steps file is written. */
   stepsDir: string | null;
   stepsFormat: StepsFormat;
@@ -53,6 +53,8 @@ function transferables(p: ChunkPartial): ArrayBuffer[] {
   const t = p.passLinks;
   for (const a of [t.text, t.times, t.ints, t.caseNums, t.caseInts, t.weatherNums]) out.add(a.buffer as ArrayBuffer);
   if (p.whatIf) for (const a of [p.whatIf.parts, p.whatIf.elevation, p.whatIf.cn0]) out.add(a.buffer as ArrayBuffer);
+  const ws = p.whatIfSummary;
+  if (ws) for (const a of [ws.groups, ws.cellEl, ws.cellCn, ws.cellCount, ws.items, ws.tStar]) out.add(a.buffer as ArrayBuffer);
   if (p.profiles) { out.add(p.profiles.rows.buffer as ArrayBuffer); out.add(p.profiles.values.buffer as ArrayBuffer); }
   return [...out];
 }

@@ -13,6 +13,7 @@ import type { Pass } from '../passes/types.js';
 import type { ResolvedScenario } from '../scenario/types.js';
 import type { StepWindow } from './window.js';
 import type { WhatIfChunkData } from './whatIfCollect.js';
+import type { WhatIfSummaryPart } from '../analysis/whatIfSummary.js';
 import type { VolumeProfiles, VolumeProfileState } from './profiles.js';
 
 /** One evaluated step as a record (the slow path, for checks and custom sinks); the objects are reused: copy what you keep. */
@@ -48,8 +49,8 @@ export interface PipelineOptions {
   onProgress?: (doneS: number, totalS: number) => void;
   /** Filled with where the time goes (this thread's work). */
   timings?: SweepTimings;
-  /** Collect the report's what-if columns into `whatIf` (whatIfCollect.ts). */
-  collectWhatIf?: boolean;
+  /** Collect the report's what-if columns into `whatIf` (whatIfCollect.ts); 'summary': the long-window summary. */
+  collectWhatIf?: boolean | 'summary';
 }
 
 /**
@@ -137,6 +138,8 @@ export interface WhatIfSatellite {
   parts: Int32Array;
   elevation: Int32Array;
   cn0: Int32Array;
+  /** With collectWhatIf 'summary': the satellite's summary (parts, elevation and cn0 are then empty). */
+  summary?: WhatIfSummaryPart;
 }
 
 /** What one chunk hands back: plain data and typed arrays (crosses a worker boundary). */
@@ -160,8 +163,10 @@ export interface ChunkPartial {
   gridTimes: number;
   linkSteps: number;
   sgp4Calls: number;
-  /** With SweepOptions.collectWhatIf: the report's what-if columns of the chunk. */
+  /** With SweepOptions.collectWhatIf: the report's what-if columns of the chunk (only its pass ids with 'summary'). */
   whatIf?: WhatIfChunkData;
+  /** With collectWhatIf 'summary': the chunk's what-if summary (analysis/whatIfSummary.ts). */
+  whatIfSummary?: WhatIfSummaryPart;
 }
 
 export const ENVELOPE_BIN_DEG = 2;

@@ -9,6 +9,7 @@ import type {
 
 export type { PassSeries } from '../../analysis/types.js';
 import type { WhatIfPayload } from '../../analysis/whatIf.js';
+import type { WhatIfSummaryPayload } from '../../analysis/whatIfSummary.js';
 
 /** Lowest/highest margin per elevation bin (bin centre in deg) for one link and weather case. */
 export interface LinkEnvelope {
@@ -47,7 +48,7 @@ export interface ReportInput {
   /** Report title (default: the scenario name). */
   title?: string;
   /** The what-if panel's data, or why the page has none (a sentence shown in its place). */
-  whatIf?: WhatIfPayload | { missing: string };
+  whatIf?: WhatIfPayload | WhatIfSummaryPayload | { missing: string };
   /** Further sections (HTML, already escaped), placed after "at a glance" (e.g. the contact plan). */
   extraSections?: string[];
 }
