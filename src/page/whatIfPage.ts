@@ -53,6 +53,7 @@ function barChart(days: string[], run: number[], now: number[]): string {
   const W = 520, H = 170, L = 54, B = 26, T = 8;
   const max = Math.max(1, ...run, ...now);
   const bw = (W - L - 8) / Math.max(1, days.length);
+  const every = Math.max(1, Math.ceil(days.length / 10));
   const y = (v: number) => T + (H - T - B) * (1 - v / max);
   let s = `<svg class="chart" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="network volume per day, run and what-if">`;
   for (let k = 0; k <= 4; k++) {
@@ -63,7 +64,8 @@ function barChart(days: string[], run: number[], now: number[]): string {
     const x = L + i * bw;
     s += `<rect x="${(x + bw * 0.1).toFixed(1)}" y="${y(run[i]).toFixed(1)}" width="${(bw * 0.38).toFixed(1)}" height="${(H - B - y(run[i])).toFixed(1)}" fill="#9aa5b1"><title>${esc(d)} run: ${esc(bits(run[i]))}</title></rect>`;
     s += `<rect x="${(x + bw * 0.5).toFixed(1)}" y="${y(now[i]).toFixed(1)}" width="${(bw * 0.38).toFixed(1)}" height="${(H - B - y(now[i])).toFixed(1)}" fill="#1f5fa8"><title>${esc(d)} what-if: ${esc(bits(now[i]))}</title></rect>`;
-    s += `<text class="tick" x="${(x + bw / 2).toFixed(1)}" y="${H - 10}" text-anchor="middle">${esc(d.slice(5))}</text>`;
+    // At most about ten day labels, whatever the window.
+    if (i % every === 0) s += `<text class="tick" x="${(x + bw / 2).toFixed(1)}" y="${H - 10}" text-anchor="middle">${esc(d.slice(5))}</text>`;
   });
   return `${s}</svg>`;
 }
@@ -105,6 +107,21 @@ function setup(data: WhatIfData | WhatIfSummaryData, root: HTMLElement, maxPasse
       const span = d.querySelector<HTMLElement>('.whatif-pass');
       if (d.dataset.link === link && span && d.dataset.pass) drawn.set(d.dataset.pass, span);
     });
+    // The link's rows of the "at a glance" table: redrawn in place with the what-if figures, restored on reset.
+    const glanceRows = Array.from(document.querySelectorAll<HTMLTableRowElement>('tr[data-glance-link]')).filter((r) => r.dataset.glanceLink === link);
+    const glanceRun = new Map(glanceRows.map((r) => [r, Array.from(r.querySelectorAll<HTMLElement>('[data-g]'), (c) => c.innerHTML)]));
+    const redrawGlance = (now: Detail | null) => {
+      for (const r of glanceRows) {
+        const cellsOf = Array.from(r.querySelectorAll<HTMLElement>('[data-g]'));
+        r.classList.toggle('whatif-now', now !== null);
+        if (now === null) { cellsOf.forEach((c, k) => { c.innerHTML = glanceRun.get(r)![k]; }); continue; }
+        const f = figures(now, r.dataset.glanceWeather ?? '', days);
+        const text: Record<string, string> = {
+          volume: `<strong>${esc(bits(f.volumePerDay))}</strong>`, passes: fixed(f.usablePassesPerDay, 1), minutes: fixed(f.usableMinPerDay, 1), worst: fixed(f.worstMarginDB, 1),
+        };
+        for (const c of cellsOf) c.innerHTML = text[c.dataset.g ?? ''] ?? c.innerHTML;
+      }
+    };
     const out = box.querySelector('.whatif-out') as HTMLElement;
     const marker = box.querySelector('.whatif-changed') as HTMLElement;
     const read = (): { change: WhatIfChange; changed: boolean; weather: string } => {
@@ -125,6 +142,7 @@ function setup(data: WhatIfData | WhatIfSummaryData, root: HTMLElement, maxPasse
       marker.hidden = !changed;
       let now: Detail;
       try { now = changed ? detailOf(change) : base; } catch (e) { out.innerHTML = `<p class="bad">${esc((e as Error).message)}</p>`; return; }
+      redrawGlance(changed ? now : null);
       const a = figures(base, weather, days), b = figures(now, weather, days);
       const row = (label: string, x: string, y: string) => `<tr><th>${esc(label)}</th><td class="num">${x}</td><td class="num"><strong>${y}</strong></td></tr>`;
       const r0 = base.result.cases[weather].network, r1 = now.result.cases[weather].network;

@@ -134,11 +134,20 @@ describe.skipIf(!present)('what-if panel of the demo week in headless Chromium',
     const runCells = box.locator('table.whatif-figures tbody td:nth-child(2)');
     const before = await cells.allTextContents();
     expect(before).toEqual(await runCells.allTextContents());
+    // The "at a glance" rows of the link: redrawn in place with the what-if figures, restored on reset.
+    const glanceVolume = page.locator('tr[data-glance-link="x-band"] td[data-g="volume"]');
+    const glanceBefore = await glanceVolume.allTextContents();
+    expect(glanceBefore.length).toBe(3);
     expect(await box.locator('.whatif-changed').isHidden()).toBe(true);
     await box.locator('input[data-key="eirp_delta_db"]').fill('3');
     const after = await cells.allTextContents();
     expect(after[0]).not.toBe(before[0]); // network volume per day
     expect(await box.locator('.whatif-changed').isVisible()).toBe(true);
+    const glanceAfter = await glanceVolume.allTextContents();
+    expect(glanceAfter[0]).not.toBe(glanceBefore[0]);
+    expect(glanceAfter[0]).toBe(after[0]); // the panel's and the glance table's what-if network volume per day agree (clear)
+    expect(await page.locator('tr.whatif-now[data-glance-link="x-band"]').count()).toBe(3);
+    expect(await page.locator('tr.whatif-now[data-glance-link="s-band"]').count()).toBe(0);
     // The link's drawn pass sections show their what-if verdict and volume.
     const marks = page.locator('details.pass[data-link="x-band"] .whatif-pass');
     expect(await marks.count()).toBeGreaterThan(0);
@@ -149,6 +158,83 @@ describe.skipIf(!present)('what-if panel of the demo week in headless Chromium',
     await box.locator('[data-reset]').click();
     expect(await cells.allTextContents()).toEqual(before);
     expect(await box.locator('.whatif-changed').isHidden()).toBe(true);
+    expect(await marks.first().textContent()).toBe('');
+    expect(await glanceVolume.allTextContents()).toEqual(glanceBefore);
+    expect(await page.locator('tr.whatif-now').count()).toBe(0);
+    expect(errors).toEqual([]);
+  });
+});
+
+/**
+ * A 35-day window (10 s steps): the report carries the summary
+ * (analysis/whatIfSummary.ts). The page's hook gives what the same module
+ * gives in Node on the page's data (the bundle runs the same code), the
+ * panel says it works from histograms, and a moved control changes the
+ * figures and the drawn passes' verdicts; reset restores them.
+ */
+describe.skipIf(!present)('what-if panel of a 35-day report (histograms) in headless Chromium', () => {
+  let dir = '';
+  let context: BrowserContext;
+  let page: Page;
+  const errors: string[] = [];
+  let html = '';
+
+  beforeAll(async () => {
+    dir = mkdtempSync(path.join(tmpdir(), 'passbudget-whatif-long-'));
+    const yaml = DEMO.replace('duration: 7d', 'duration: 35d').replace(/step_s: 1\b/, 'step_s: 10');
+    expect(yaml).not.toBe(DEMO);
+    writeFileSync(path.join(dir, 'scenario.yaml'), yaml);
+    copyFileSync(path.join(ROOT, 'fixtures/demo/orbilux-3.tle'), path.join(dir, 'orbilux-3.tle'));
+    await runScenario(loadScenario(path.join(dir, 'scenario.yaml')), { outDir: path.join(dir, 'out'), quiet: true, steps: false });
+    html = readFileSync(path.join(dir, 'out', 'report.html'), 'utf8');
+    context = await chromium.launchPersistentContext(path.join(dir, 'profile'), {
+      executablePath: CHROMIUM, headless: true, viewport: { width: 1240, height: 1400 },
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    });
+    page = context.pages()[0] ?? (await context.newPage());
+    page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+    page.on('pageerror', (e) => errors.push(String(e)));
+    await page.goto(pathToFileURL(path.join(dir, 'out', 'report.html')).href, { waitUntil: 'load' });
+  }, 300_000);
+
+  afterAll(async () => {
+    await context?.close();
+    if (dir) rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('says it works from histograms, with their resolution', async () => {
+    expect(await page.locator('#whatif').textContent()).toMatch(/from histograms: this window is longer than 31 days.*elevation \(1°\) and C\/N0 \(0\.25 dB/s);
+    expect(await page.locator('.whatif-link').count()).toBe(3);
+    expect(errors).toEqual([]);
+  });
+
+  it('the hook gives what the module gives in Node on the page\'s data', async () => {
+    const { decodeWhatIfSummaryPayload, whatIfSummaryDetail } = await import('../../src/analysis/whatIfSummary.js');
+    const m = html.match(/<script type="application\/json" id="passbudget-whatif-data">(.*?)<\/script>/s)!;
+    const data = decodeWhatIfSummaryPayload(JSON.parse(m[1]), (s) => new Uint8Array(Buffer.from(s, 'base64')));
+    for (const change of [{ link: 'x-band', eirp_delta_db: 3 }, { link: 'uhf-tm', bit_rate_bps: 4800 }, { link: 's-band', required_margin_db: 6, mask_deg: 10 }]) {
+      const got = await page.evaluate((x) => (window as unknown as { passbudgetWhatIf: (c: unknown) => WhatIfResult }).passbudgetWhatIf(x), change);
+      const want = whatIfSummaryDetail(data, change).result;
+      expect(got).toEqual(JSON.parse(JSON.stringify(want)));
+      expect(got.cases.clear.network.days_utc.length).toBe(35);
+    }
+  });
+
+  it('a moved control changes the figures and the drawn verdicts; reset restores the run', async () => {
+    const box = page.locator('.whatif-link[data-link="s-band"]');
+    const cells = box.locator('table.whatif-figures tbody td:nth-child(3)');
+    const before = await cells.allTextContents();
+    await box.locator('input[data-key="required_margin_db"]').fill('9');
+    const after = await cells.allTextContents();
+    expect(after[0]).not.toBe(before[0]);
+    expect(await box.locator('.whatif-changed').isVisible()).toBe(true);
+    const marks = page.locator('details.pass[data-link="s-band"] .whatif-pass');
+    expect(await marks.count()).toBeGreaterThan(0);
+    expect(await marks.first().textContent()).toMatch(/what-if clear: (usable|not usable|below the mask)$/);
+    mkdirSync(path.join(ROOT, 'out'), { recursive: true });
+    await page.locator('#whatif').screenshot({ path: path.join(ROOT, 'out', 'whatif-panel-35d.png') });
+    await box.locator('[data-reset]').click();
+    expect(await cells.allTextContents()).toEqual(before);
     expect(await marks.first().textContent()).toBe('');
     expect(errors).toEqual([]);
   });

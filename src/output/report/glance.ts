@@ -54,16 +54,17 @@ export function glance(rows: GlanceRow[], links: string[], required: Record<stri
       const linkCell = k === 0
         ? `<th rowspan="${mine.length}" scope="rowgroup" class="glance-link">${h(link)}<br><span class="small">required margin ${req === undefined ? 'not given' : `${formatFixed(req, 1)} dB`}</span></th>`
         : '';
-      return `<tr${k === 0 ? ' class="group-start"' : ''}>${linkCell}<td>${h(r.weather)}</td><td class="num"><strong>${h(formatBits(r.networkVolumePerDayBits))}</strong></td>`
-        + `<td class="num">${formatFixed(r.usablePassesPerDay, 1)}</td><td class="num">${formatFixed(r.usableMinutesPerDay, 1)}</td>`
-        + `<td class="num${worstCls}">${formatFixed(r.worstMarginDB, 1)}</td><td class="num">${formatFixed(r.bestMarginDB, 1)}</td>`
+      // data-glance-* and data-g: the what-if panel redraws these cells in place while a control is moved.
+      return `<tr${k === 0 ? ' class="group-start"' : ''} data-glance-link="${h(link)}" data-glance-weather="${h(r.weather)}">${linkCell}<td>${h(r.weather)}</td><td class="num" data-g="volume"><strong>${h(formatBits(r.networkVolumePerDayBits))}</strong></td>`
+        + `<td class="num" data-g="passes">${formatFixed(r.usablePassesPerDay, 1)}</td><td class="num" data-g="minutes">${formatFixed(r.usableMinutesPerDay, 1)}</td>`
+        + `<td class="num${worstCls}" data-g="worst">${formatFixed(r.worstMarginDB, 1)}</td><td class="num">${formatFixed(r.bestMarginDB, 1)}</td>`
         + `<td class="num">${r.verdicts.usable} / ${r.verdicts.marginal} / ${r.verdicts.unusable}</td></tr>`;
     }).join('');
   }).join('');
   return `<section id="glance"><h2>At a glance</h2>
 <table class="glance"><thead><tr><th>link</th><th>weather</th><th class="num">network volume per day</th><th class="num">usable passes per day</th><th class="num">usable minutes per day</th><th class="num">worst margin (dB)</th><th class="num">best margin (dB)</th><th class="num">passes usable / marginal / unusable</th></tr></thead>
 <tbody>${body}</tbody></table>
-<p class="small">Network figures count every station (see network counting above); margins are over every step of every pass of the link. A worst margin below the link's required margin is shown in red.</p></section>`;
+<p class="small">Network figures count every station (see network counting above); margins are over every step of every pass of the link. A worst margin below the link's required margin is shown in red. While a what-if control is moved (below), a link's volume, usable passes, usable minutes and worst margin here show the what-if figures, shaded; best margin and verdict counts stay the run's.</p></section>`;
 }
 
 /**

@@ -29,6 +29,7 @@ export function whatIfScript(): string {
 
 const STYLE = `.whatif-link{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:4px 12px 10px;margin:10px 0}
 .whatif-controls label{white-space:nowrap;margin-right:10px}.whatif-controls input{width:8em}
+tr.whatif-now td[data-g]{background:#fbecd0}
 .whatif-changed{font-size:12.5px;color:#fff;background:var(--warn);border-radius:3px;padding:1px 6px;margin-left:8px}`;
 
 export function whatIfSection(data: WhatIfPayload | WhatIfSummaryPayload | { missing: string } | undefined, maxPasses: number): string {
