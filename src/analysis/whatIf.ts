@@ -224,7 +224,8 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
   const floor = change.mask_deg;
   const daily: DailyRow[] = [];
   const passes: PassLinkSummary[] = [];
-  const stationAcc = new Map<string, DailyAccumulator[]>();
+  /** Per station name, per satellite seeing it: the accumulators per case (each satellite's steps in time order). */
+  const stationAcc = new Map<string, DailyAccumulator[][]>();
   const networkAcc: DailyAccumulator[][] = [];
 
   for (const sat of data.satellites) {
@@ -265,12 +266,10 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
     // Station by station: pass summaries and the daily aggregate (the run's accumulators).
     const accOf = sat.stations.map((st, s) => {
       if (!specs[s]) return null;
-      const key = st.name;
-      let acc = stationAcc.get(key);
-      if (!acc) {
-        acc = weather.map((w) => createDailyAccumulator({ startS, endS, link: specs[s]!, weather: w }));
-        stationAcc.set(key, acc);
-      }
+      const acc = weather.map((w) => createDailyAccumulator({ startS, endS, link: specs[s]!, weather: w }));
+      let list = stationAcc.get(st.name);
+      if (!list) stationAcc.set(st.name, (list = []));
+      list.push(acc);
       return acc;
     });
     const bySt = [...subs].sort((x, y) => x.station - y.station || x.k0 - y.k0);
@@ -335,8 +334,9 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
   weather.forEach((w, ci) => {
     const net = sumDailyRows(networkAcc.map((a) => a[ci].rows()));
     const stations: Record<string, WhatIfDaily> = {};
-    for (const [name, acc] of stationAcc) {
-      const rows = acc[ci].rows();
+    for (const [name, list] of stationAcc) {
+      // Several satellites at a station: their days summed.
+      const rows = sumDailyRows(list.map((acc) => acc[ci].rows()));
       stations[name] = packDaily(rows);
       for (const r of rows) daily.push(r);
     }
@@ -356,7 +356,7 @@ export function packDaily(rows: readonly DailyRow[]): WhatIfDaily {
   };
 }
 
-/** Day-by-day sums of several satellites' network rows (the same days). */
+/** Day-by-day sums of several satellites' rows (the same days). */
 export function sumDailyRows(lists: readonly DailyRow[][]): DailyRow[] {
   return lists[0].map((r, d) => lists.slice(1).reduce((x, l) => ({
     ...x, passes: x.passes + l[d].passes, usablePasses: x.usablePasses + l[d].usablePasses, usableMinutes: x.usableMinutes + l[d].usableMinutes,
