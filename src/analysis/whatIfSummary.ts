@@ -85,11 +85,34 @@ export interface WhatIfSummaryPart {
 }
 
 /** The fewest usable steps whose time passes the verdict rule's "usable" test for `aboveS` above the mask. */
-function neededSteps(aboveS: number, stepS: number, rule: VerdictRule): number {
-  let k = 0, s = 0;
-  // The sum as the accumulators add it (one step at a time).
-  while (!(k >= 1 && s >= rule.minUsableS && s >= rule.minUsableFraction * aboveS)) { k++; s += stepS; }
-  return k;
+function neededSteps(aboveS: number, stepS: number, rule: VerdictRule, sums: number[]): number {
+  // sums[k]: k steps' time summed as the accumulators add it (one step at a time), extended as needed; the first k that passes.
+  const ok = (k: number) => k >= 1 && sums[k] >= rule.minUsableS && sums[k] >= rule.minUsableFraction * aboveS;
+  const guess = Math.max(1, Math.ceil(Math.max(rule.minUsableS, rule.minUsableFraction * aboveS) / stepS) + 2);
+  while (sums.length <= guess) sums.push(sums[sums.length - 1] + stepS);
+  let lo = 0, hi = guess;
+  while (!ok(hi)) { hi *= 2; while (sums.length <= hi) sums.push(sums[sums.length - 1] + stepS); }
+  // The sums increase with k: bisect for the first k that passes.
+  while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (ok(mid)) hi = mid; else lo = mid; }
+  return hi;
+}
+
+/** The k-th largest (1-based) of a[0 … n−1], reordering a (quickselect); MISSING when k > n. */
+function kthLargest(a: Int32Array, n: number, k: number): number {
+  if (k > n || k < 1) return MISSING;
+  let lo = 0, hi = n - 1;
+  const want = k - 1;
+  while (lo < hi) {
+    const pivot = a[(lo + hi) >> 1];
+    let i = lo, j = hi;
+    while (i <= j) {
+      while (a[i] > pivot) i++;
+      while (a[j] < pivot) j--;
+      if (i <= j) { const t = a[i]; a[i] = a[j]; a[j] = t; i++; j--; }
+    }
+    if (want <= j) hi = j; else if (want >= i) lo = i; else return a[want];
+  }
+  return a[want];
 }
 
 /** Per whole-degree mask from floor(min elevation): the K-th best C/N0 above it (the items' tStar values). */
@@ -171,6 +194,10 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
   const cells: CellMap = new Map();
   const items: number[] = [], tStar: number[] = [];
   const steps = passSteps(s);
+  const sums = [0];
+  /** n steps' time as the accumulators add it. */
+  const stepSum = (n: number) => { while (sums.length <= n) sums.push(sums[sums.length - 1] + stepS); return sums[n]; };
+  let scratch = new Int32Array(1024);
 
   // Station passes.
   for (const ps of steps) {
@@ -181,11 +208,12 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
     for (let i = 0; i < n; i++) { elBin[i] = Math.floor(el[i] / per); if (elBin[i] < lo) lo = elBin[i]; if (elBin[i] > hi) hi = elBin[i]; }
     const mA = lo, nM = hi - lo + 1;
     const need = new Int32Array(nM);
-    const elDeg = Float64Array.from(el, (v) => v * qEl);
+    const elDeg = new Float64Array(n);
+    for (let q = 0; q < n; q++) elDeg[q] = el[q] * qEl;
     for (let j = 0; j < nM; j++) {
       const above = j === 0 ? pass.durationS
         : maskRuns(elDeg, n, mA + j, startS, k0, stepS, pass.aosS, pass.losS).reduce((a, r) => a + (r.a === 0 && r.b === n ? pass.durationS : r.losS - r.aosS), 0);
-      need[j] = neededSteps(above, stepS, rule);
+      need[j] = neededSteps(above, stepS, rule, sums);
     }
     const order = new Int32Array(n);
     const dayOf = (i: number) => dayAt(k0 + i);
@@ -239,9 +267,11 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
       const ks: number[] = [];
       for (let k = 0; k < span; k++) if (inView[k] === 1) ks.push(k);
       const n = ks.length;
+      if (scratch.length < n) scratch = new Int32Array(n);
       const dayOf = (q: number) => dayAt(kStart + ks[q]);
       // A contact is in view while some station is above the mask; a raised mask can split it into several.
-      const viewBin = Int32Array.from(ks, (k) => Math.floor(maxEl[k] / per));
+      const viewBin = new Int32Array(n);
+      for (let q = 0; q < n; q++) viewBin[q] = Math.floor(maxEl[ks[q]] / per);
       let lo = Infinity, hi = -Infinity;
       for (const e of viewBin) { if (e < lo) lo = e; if (e > hi) hi = e; }
       const mA = lo, nM = hi - lo + 1;
@@ -259,30 +289,41 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
       };
       const runs = Array.from({ length: nM }, (_, jm) => runsAt(jm));
       for (let ci = 0; ci < nCases; ci++) {
-        const elBin = Int32Array.from(ks, (k) => Math.floor(bestEl[k * nCases + ci] / per));
-        const cn = Int32Array.from(ks, (k) => best[k * nCases + ci]);
+        const elBin = new Int32Array(n), cn = new Int32Array(n);
+        for (let q = 0; q < n; q++) { const x = ks[q] * nCases + ci; elBin[q] = Math.floor(bestEl[x] / per); cn[q] = best[x]; }
         addCells(cells, groupKey(-1, li, ci, 0, nL, nC, nD), dayOf, elBin, (q) => bin(cn[q]), 0, n);
         // Per mask: the K-th best of the run's grid times (the best C/N0 of the stations above the mask;
         // each grid time one step of time in view, as the network adds them). Several runs: SPLIT, and an item each.
         // Per grid time at a mask: the best C/N0 of the stations above it.
         const withLink = sorted.slice(i, j).filter((ps) => linkOf[ps.station][li] >= 0);
-        const cols = withLink.map((ps) => ps.cn0(linkOf[ps.station][li], ci));
+        // Per grid time, each station's elevation bin (NONE when not in view) and C/N0: flat, nS per grid time.
+        const nS = withLink.length, NONE = -2147483647;
+        const candBin = new Int32Array(n * nS).fill(NONE), candCn = new Int32Array(n * nS);
+        withLink.forEach((ps, x) => {
+          const col = ps.cn0(linkOf[ps.station][li], ci);
+          for (let q = 0; q < n; q++) {
+            const at = ks[q] + kStart - ps.k0;
+            if (at < 0 || at >= ps.n) continue;
+            candBin[q * nS + x] = Math.floor(ps.el[at] / per);
+            candCn[q * nS + x] = col[at];
+          }
+        });
         const valueAt = (q: number, m: number): number => {
           if (m === -Infinity) return cn[q];
           let v = MISSING;
-          const k = ks[q] + kStart;
-          withLink.forEach((ps, x) => {
-            const at = k - ps.k0;
-            if (at < 0 || at >= ps.n || Math.floor(ps.el[at] / per) < m) return;
-            const c = cols[x][at];
+          for (let x = q * nS; x < (q + 1) * nS; x++) {
+            if (candBin[x] === NONE || candBin[x] < m) continue;
+            const c = candCn[x];
             if (c !== MISSING && (v === MISSING || c > v)) v = c;
-          });
+          }
           return v;
         };
         const kth = (run: number[], m: number): number => {
-          const v = run.map((q) => valueAt(q, m)).filter((x) => x !== MISSING).sort((x, y) => y - x);
-          const k = neededSteps(run.reduce((t) => t + stepS, 0), stepS, rule);
-          return k <= v.length ? Math.round(v[k - 1] / tPer) : MISSING;
+          let nv = 0;
+          for (const q of run) { const x = valueAt(q, m); if (x !== MISSING) scratch[nv++] = x; }
+          const k = neededSteps(stepSum(run.length), stepS, rule, sums);
+          const v = kthLargest(scratch, nv, k);
+          return v === MISSING ? MISSING : Math.round(v / tPer);
         };
         items.push(-1, li, ci, dayOf(0), -1, mA, nM);
         const parts: number[][] = [];
