@@ -116,22 +116,49 @@ function kthLargest(a: Int32Array, n: number, k: number): number {
 }
 
 /** Per whole-degree mask from floor(min elevation): the K-th best C/N0 above it (the items' tStar values). */
-function thresholds(elBin: Int32Array, n: number, cn: Int32Array, order: Int32Array, need: Int32Array, mA: number, nM: number, tPer: number, out: number[]): void {
-  let m = 0;
-  for (let i = 0; i < n; i++) order[i] = i;
-  order.subarray(0, n).sort((a, b) => cn[b] - cn[a]);
-  for (let j = 0; j < nM; j++) {
-    const mask = j === 0 ? -Infinity : mA + j;
-    const k = need[j];
-    let got = MISSING;
-    m = 0;
-    for (let q = 0; q < n; q++) {
-      const i = order[q];
-      if (cn[i] === MISSING) break;
-      if (elBin[i] < mask) continue;
-      if (++m === k) { got = Math.round(cn[i] / tPer); break; }
+function thresholds(elBin: Int32Array, n: number, cn: Int32Array, need: Int32Array, mA: number, nM: number, tPer: number, out: number[]): void {
+  // Masks from the highest down: the steps above each added as the mask comes down past them.
+  const byBin: number[][] = Array.from({ length: nM }, () => []);
+  for (let i = 0; i < n; i++) if (cn[i] !== MISSING) byBin[elBin[i] - mA].push(i);
+  const set = new KthLargest(cn.subarray(0, n).filter((x) => x !== MISSING));
+  const got = new Array<number>(nM);
+  for (let j = nM - 1; j >= 0; j--) {
+    for (const i of byBin[j]) set.add(cn[i], 1);
+    const v = set.kth(need[j]);
+    got[j] = v === MISSING ? MISSING : Math.round(v / tPer);
+  }
+  for (const v of got) out.push(v);
+}
+
+/** A multiset of integers from a known set of values: add, remove and the k-th largest in O(log n) (a Fenwick tree over their ranks). */
+class KthLargest {
+  private readonly vals: Int32Array;
+  private readonly tree: Int32Array;
+  private count = 0;
+  constructor(values: ArrayLike<number>) {
+    const v = Int32Array.from(values).sort().reverse();
+    let n = 0;
+    for (let i = 0; i < v.length; i++) if (i === 0 || v[i] !== v[i - 1]) v[n++] = v[i];
+    this.vals = v.slice(0, n);
+    this.tree = new Int32Array(n + 1);
+  }
+  private rank(x: number): number {
+    let lo = 0, hi = this.vals.length - 1;
+    while (lo < hi) { const mid = (lo + hi) >> 1; if (this.vals[mid] > x) lo = mid + 1; else hi = mid; }
+    return lo;
+  }
+  add(x: number, d: 1 | -1): void {
+    this.count += d;
+    for (let i = this.rank(x) + 1; i < this.tree.length; i += i & -i) this.tree[i] += d;
+  }
+  /** The k-th largest (1-based), MISSING when fewer than k. */
+  kth(k: number): number {
+    if (k < 1 || k > this.count) return MISSING;
+    let pos = 0, rest = k;
+    for (let step = 1 << Math.floor(Math.log2(this.tree.length)); step > 0; step >>= 1) {
+      if (pos + step < this.tree.length && this.tree[pos + step] < rest) { pos += step; rest -= this.tree[pos]; }
     }
-    out.push(got);
+    return this.vals[pos];
   }
 }
 
@@ -215,7 +242,6 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
         : maskRuns(elDeg, n, mA + j, startS, k0, stepS, pass.aosS, pass.losS).reduce((a, r) => a + (r.a === 0 && r.b === n ? pass.durationS : r.losS - r.aosS), 0);
       need[j] = neededSteps(above, stepS, rule, sums);
     }
-    const order = new Int32Array(n);
     const dayOf = (i: number) => dayAt(k0 + i);
     const aosDay = Math.min(nD - 1, Math.max(0, utcDayNumber(pass.aosS) - firstDay));
     for (let li = 0; li < s.linkNames.length; li++) {
@@ -225,7 +251,7 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
         const cn = ps.cn0(l, ci);
         addCells(cells, groupKey(station, li, ci, 0, nL, nC, nD), dayOf, elBin, (i) => bin(cn[i]), 0, n);
         items.push(station, li, ci, aosDay, ps.pass, mA, nM);
-        thresholds(elBin, n, cn, order, need, mA, nM, tPer, tStar);
+        thresholds(elBin, n, cn, need, mA, nM, tPer, tStar);
       }
     }
   }
@@ -325,12 +351,44 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
           const v = kthLargest(scratch, nv, k);
           return v === MISSING ? MISSING : Math.round(v / tPer);
         };
+        // Masks from the highest down, each grid time's value the best of the stations above (stations activated
+        // as the mask comes down past them): the K-th best of a mask with one run in O(log n).
+        // Candidates by bin, highest first (a counting sort; within a bin in grid-time order).
+        let bLo = Infinity, bHi = -Infinity;
+        for (let x = 0; x < n * nS; x++) if (candBin[x] !== NONE && candCn[x] !== MISSING) { if (candBin[x] < bLo) bLo = candBin[x]; if (candBin[x] > bHi) bHi = candBin[x]; }
+        const buckets: number[][] = bHi >= bLo ? Array.from({ length: bHi - bLo + 1 }, () => []) : [];
+        for (let x = 0; x < n * nS; x++) if (candBin[x] !== NONE && candCn[x] !== MISSING) buckets[bHi - candBin[x]].push(x);
+        const order: number[] = [];
+        for (const b of buckets) for (const x of b) order.push(x);
+        const values = new Int32Array(order.length);
+        order.forEach((x, o) => { values[o] = candCn[x]; });
+        const set = new KthLargest(values);
+        const value = new Int32Array(n).fill(MISSING);
+        const single = new Array<number>(nM).fill(MISSING);
+        let next = 0, kept = 0;
+        const activate = (x: number) => {
+          const q = Math.floor(x / nS), c = candCn[x];
+          if (value[q] !== MISSING && c <= value[q]) return;
+          if (value[q] !== MISSING) set.add(value[q], -1);
+          value[q] = c;
+          set.add(c, 1);
+        };
+        const perView = new Int32Array(nM);
+        for (let q = 0; q < n; q++) perView[viewBin[q] - mA]++;
+        for (let jm = nM - 1; jm >= 0; jm--) {
+          const m = jm === 0 ? -Infinity : mA + jm;
+          while (next < order.length && candBin[order[next]] >= m) activate(order[next++]);
+          kept += perView[jm];
+          if (runs[jm].length !== 1) continue;
+          const v = set.kth(neededSteps(stepSum(kept), stepS, rule, sums));
+          single[jm] = v === MISSING ? MISSING : Math.round(v / tPer);
+        }
         items.push(-1, li, ci, dayOf(0), -1, mA, nM);
         const parts: number[][] = [];
         for (let jm = 0; jm < nM; jm++) {
           const m = jm === 0 ? -Infinity : mA + jm;
           const rs = runs[jm];
-          if (rs.length === 1) { tStar.push(kth(rs[0], m)); continue; }
+          if (rs.length === 1) { tStar.push(single[jm]); continue; }
           tStar.push(SPLIT);
           for (const run of rs) parts.push([dayOf(run[0]), jm, kth(run, m)]);
         }
