@@ -191,7 +191,7 @@ function breakdown(r: CaseResult): string | null {
   if (!t) return null;
   const parts: [string, number][] = [
     ['pass search', t.passSearchS], ['elevation tables', t.tablesS], ['propagation', t.propagationS], ['geometry', t.geometryS],
-    ['budget', t.budgetS], ['accumulators', t.accumulatorsS], ['steps rows', t.stepsS], ['other outputs', t.outputsS],
+    ['budget', t.budgetS], ['accumulators', t.accumulatorsS], ['steps rows', t.stepsS], ['what-if summary', t.whatIfS], ['other outputs', t.outputsS],
   ];
   const known = parts.reduce((s, [, v]) => s + v, 0);
   parts.push(['rest (planning, merging, start of run)', Math.max(0, r.wallS - known)]);

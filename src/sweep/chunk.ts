@@ -395,12 +395,14 @@ export function createSweeper(scenario: ResolvedScenario, layout: SatelliteLayou
     if (whatIf) {
       const d = whatIf.take();
       if (o.collectWhatIf === 'summary') {
+        lap('accumulatorsS');
         const { startS, endS, stepS } = scenario.window;
         part.whatIfSummary = summariseWhatIf({
           startS, endS, stepS, nCases, elevationQuantumDeg: WHATIF_ELEVATION_QUANTUM_DEG, cn0QuantumDB: WHATIF_CN0_QUANTUM_DB,
           linkNames: layout.linkNames, stations: layout.stations, passes: part.passes, parts: d.parts, elevation: d.elevation, cn0: d.cn0,
         });
         part.whatIf = { parts: new Int32Array(0), elevation: new Int32Array(0), cn0: new Int32Array(0), passIds: d.passIds };
+        lap('whatIfS');
       } else {
         part.whatIf = d;
       }

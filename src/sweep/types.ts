@@ -69,12 +69,14 @@ export interface SweepTimings {
   budgetS: number;
   accumulatorsS: number;
   stepsS: number;
+  /** Reducing the what-if columns to the long-window summary (analysis/whatIfSummary.ts). */
+  whatIfS: number;
   /** `passbudget run` only: writing the other outputs (passes, daily, summary, calendar, report). */
   outputsS: number;
 }
 
 export function createSweepTimings(): SweepTimings {
-  return { passSearchS: 0, tablesS: 0, propagationS: 0, geometryS: 0, budgetS: 0, accumulatorsS: 0, stepsS: 0, outputsS: 0 };
+  return { passSearchS: 0, tablesS: 0, propagationS: 0, geometryS: 0, budgetS: 0, accumulatorsS: 0, stepsS: 0, whatIfS: 0, outputsS: 0 };
 }
 
 export interface StationLinkHistograms {
