@@ -200,7 +200,8 @@ interface Sub {
   linkSpec: LinkSpec | null;
 }
 
-function caseColumns(n: number) {
+/** Columns the per-step rule (budget/caseRule.ts applyCaseRule) reads and writes, n entries. */
+export function caseColumns(n: number) {
   const f = () => new Float64Array(n);
   return { cOverN0DBHz: f(), esN0DB: f(), ebN0DB: f(), requiredEbN0DB: f(), marginDB: f(), usable: new Uint8Array(n), mode: new Int16Array(n), informationRateBps: f() };
 }
@@ -211,6 +212,14 @@ function view(cols: LinkColumns, from: number): LinkColumns {
     const x = c as unknown as Cases;
     return { ...c, marginDB: x.marginDB.subarray(from), usable: x.usable.subarray(from), informationRateBps: x.informationRateBps.subarray(from), esN0DB: x.esN0DB.subarray(from) };
   }) } as LinkColumns;
+}
+
+/** Each satellite's passes gathered once (the page recomputes on every control move; the data does not change). */
+const gathered = new WeakMap<WhatIfSatelliteData, PassSteps[]>();
+function gatheredSteps(sat: WhatIfSatelliteData, nCases: number): PassSteps[] {
+  let g = gathered.get(sat);
+  if (!g) gathered.set(sat, (g = passSteps({ ...sat, nCases })));
+  return g;
 }
 
 /** Recompute one link with a change. */
@@ -234,7 +243,7 @@ export function whatIfDetail(data: WhatIfData, change: WhatIfChange): WhatIfDeta
     const specs = sat.stations.map((st, s) => (linkIndex[s] >= 0 ? changedLink(st.links[linkIndex[s]], change) : null));
     const rules = specs.map((l) => (l ? createCaseRule(l) : null));
     const subs: Sub[] = [];
-    for (const ps of passSteps({ ...sat, nCases })) {
+    for (const ps of gatheredSteps(sat, nCases)) {
       const pass = sat.passes[ps.pass];
       const { station: s, k0, n } = ps;
       const el = new Float64Array(n);

@@ -30,7 +30,7 @@ import { utcDayLabel, utcDayNumber, utcDaysOfWindow } from './utcDay.js';
 import { DEFAULT_VERDICT_RULE, type VerdictRule } from './verdict.js';
 import { NETWORK_STATION } from './dailyAccumulator.js';
 import type { DailyRow } from './types.js';
-import { changedLink, checkLinkChange, decodeIntColumn, encodeIntColumn, maskRuns, packDaily, passSteps, sumDailyRows, type WhatIfChange, type WhatIfDaily, type WhatIfLinkSpec, type WhatIfPassInfo, type WhatIfResult } from './whatIf.js';
+import { caseColumns, changedLink, checkLinkChange, decodeIntColumn, encodeIntColumn, maskRuns, packDaily, passSteps, sumDailyRows, type WhatIfChange, type WhatIfDaily, type WhatIfData, type WhatIfLinkSpec, type WhatIfPassInfo, type WhatIfResult } from './whatIf.js';
 
 /** Bin widths of the summary's histograms. */
 export const SUMMARY_ELEVATION_BIN_DEG = 1;
@@ -71,7 +71,7 @@ export interface SummaryInput {
 export interface WhatIfSummaryPart {
   /** Per group: series (layout station, −1 for the network), link, case, day index, cell count (5 integers). */
   groups: Int32Array;
-  /** Per cell of the groups in order: elevation bin (whole degrees), C/N0 bin (0.1 dB units), steps. */
+  /** Per cell of the groups in order: elevation bin (whole degrees), C/N0 bin (in units of the bin width, cn0BinDB), steps. */
   cellEl: Int32Array;
   cellCn: Int32Array;
   cellCount: Int32Array;
@@ -95,24 +95,6 @@ function neededSteps(aboveS: number, stepS: number, rule: VerdictRule, sums: num
   // The sums increase with k: bisect for the first k that passes.
   while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (ok(mid)) hi = mid; else lo = mid; }
   return hi;
-}
-
-/** The k-th largest (1-based) of a[0 … n−1], reordering a (quickselect); MISSING when k > n. */
-function kthLargest(a: Int32Array, n: number, k: number): number {
-  if (k > n || k < 1) return MISSING;
-  let lo = 0, hi = n - 1;
-  const want = k - 1;
-  while (lo < hi) {
-    const pivot = a[(lo + hi) >> 1];
-    let i = lo, j = hi;
-    while (i <= j) {
-      while (a[i] > pivot) i++;
-      while (a[j] < pivot) j--;
-      if (i <= j) { const t = a[i]; a[i] = a[j]; a[j] = t; i++; j--; }
-    }
-    if (want <= j) hi = j; else if (want >= i) lo = i; else return a[want];
-  }
-  return a[want];
 }
 
 /** Per whole-degree mask from floor(min elevation): the K-th best C/N0 above it (the items' tStar values). */
@@ -224,7 +206,6 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
   const sums = [0];
   /** n steps' time as the accumulators add it. */
   const stepSum = (n: number) => { while (sums.length <= n) sums.push(sums[sums.length - 1] + stepS); return sums[n]; };
-  let scratch = new Int32Array(1024);
 
   // Station passes.
   for (const ps of steps) {
@@ -293,7 +274,6 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
       const ks: number[] = [];
       for (let k = 0; k < span; k++) if (inView[k] === 1) ks.push(k);
       const n = ks.length;
-      if (scratch.length < n) scratch = new Int32Array(n);
       const dayOf = (q: number) => dayAt(kStart + ks[q]);
       // A contact is in view while some station is above the mask; a raised mask can split it into several.
       const viewBin = new Int32Array(n);
@@ -301,16 +281,17 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
       let lo = Infinity, hi = -Infinity;
       for (const e of viewBin) { if (e < lo) lo = e; if (e > hi) hi = e; }
       const mA = lo, nM = hi - lo + 1;
-      const runsAt = (jm: number): number[][] => {
-        const out: number[][] = [];
-        let cur: number[] = [];
-        for (let q = 0; q < n; q++) {
-          const kept = jm === 0 || viewBin[q] >= mA + jm;
-          if (kept && (jm === 0 || cur.length === 0 || ks[q] === ks[cur[cur.length - 1]] + 1)) { cur.push(q); continue; }
-          if (cur.length > 0) out.push(cur);
-          cur = kept ? [q] : [];
+      // Per mask, its runs as ranges [qa, qb) of grid times (the whole contact with the run's mask): a run's grid times
+      // are consecutive, so every one between its first and last is above the mask.
+      const runsAt = (jm: number): number[] => {
+        if (jm === 0) return [0, n];
+        const out: number[] = [];
+        let qa = -1;
+        for (let q = 0; q <= n; q++) {
+          const kept = q < n && viewBin[q] >= mA + jm;
+          if (qa >= 0 && (!kept || ks[q] !== ks[q - 1] + 1)) { out.push(qa, q); qa = -1; }
+          if (kept && qa < 0) qa = q;
         }
-        if (cur.length > 0) out.push(cur);
         return out;
       };
       const runs = Array.from({ length: nM }, (_, jm) => runsAt(jm));
@@ -344,11 +325,13 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
           }
           return v;
         };
-        const kth = (run: number[], m: number): number => {
-          let nv = 0;
-          for (const q of run) { const x = valueAt(q, m); if (x !== MISSING) scratch[nv++] = x; }
-          const k = neededSteps(stepSum(run.length), stepS, rule, sums);
-          const v = kthLargest(scratch, nv, k);
+        /** The K-th best of grid times [qa, qb) at mask m (a part of a split contact). */
+        const kth = (qa: number, qb: number, m: number): number => {
+          const vals: number[] = [];
+          for (let q = qa; q < qb; q++) { const x = valueAt(q, m); if (x !== MISSING) vals.push(x); }
+          const part = new KthLargest(vals);
+          for (const x of vals) part.add(x, 1);
+          const v = part.kth(neededSteps(stepSum(qb - qa), stepS, rule, sums));
           return v === MISSING ? MISSING : Math.round(v / tPer);
         };
         // Masks from the highest down, each grid time's value the best of the stations above (stations activated
@@ -379,7 +362,7 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
           const m = jm === 0 ? -Infinity : mA + jm;
           while (next < order.length && candBin[order[next]] >= m) activate(order[next++]);
           kept += perView[jm];
-          if (runs[jm].length !== 1) continue;
+          if (runs[jm].length !== 2) continue;
           const v = set.kth(neededSteps(stepSum(kept), stepS, rule, sums));
           single[jm] = v === MISSING ? MISSING : Math.round(v / tPer);
         }
@@ -388,9 +371,9 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
         for (let jm = 0; jm < nM; jm++) {
           const m = jm === 0 ? -Infinity : mA + jm;
           const rs = runs[jm];
-          if (rs.length === 1) { tStar.push(single[jm]); continue; }
+          if (rs.length === 2) { tStar.push(single[jm]); continue; }
           tStar.push(SPLIT);
-          for (const run of rs) parts.push([dayOf(run[0]), jm, kth(run, m)]);
+          for (let r = 0; r < rs.length; r += 2) parts.push([dayOf(rs[r]), jm, kth(rs[r], rs[r + 1], m)]);
         }
         for (const [day, jm, t] of parts) { items.push(-1, li, ci, day, -2 - jm, mA, 1); tStar.push(t); }
       }
@@ -398,6 +381,21 @@ export function summariseWhatIf(s: SummaryInput): WhatIfSummaryPart {
     i = j;
   }
   return cellsToPart(cells, nL, nC, nD, items, tStar);
+}
+
+/** The summary of a whole run's every-step what-if data (as `passbudget report DIR` and the checks make it). */
+export function summariseWhatIfData(d: WhatIfData): WhatIfSummaryData {
+  return {
+    kind: 'summary', startS: d.startS, endS: d.endS, stepS: d.stepS, weather: d.weather, policy: d.policy,
+    thresholdQuantumDB: SUMMARY_THRESHOLD_QUANTUM_DB, elevationBinDeg: SUMMARY_ELEVATION_BIN_DEG, cn0BinDB: SUMMARY_CN0_BIN_DB,
+    satellites: d.satellites.map((s) => ({
+      satellite: s.satellite, linkNames: s.linkNames, stations: s.stations, passes: s.passes,
+      summary: summariseWhatIf({
+        startS: d.startS, endS: d.endS, stepS: d.stepS, nCases: d.weather.length, elevationQuantumDeg: d.elevationQuantumDeg, cn0QuantumDB: d.cn0QuantumDB,
+        linkNames: s.linkNames, stations: s.stations, passes: s.passes, parts: s.parts, elevation: s.elevation, cn0: s.cn0,
+      }),
+    })),
+  };
 }
 
 /** Chunk summaries merged in chunk order: cells of a group summed, items in order (pass numbers made satellite-wide). */
@@ -482,7 +480,9 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
   const netSums: { sums: Sums[][]; adaptive: boolean; satellite: string }[] = [];
   const worst: Record<string, number> = Object.fromEntries(weather.map((w) => [w, Infinity]));
   const verdicts = new Map<string, Record<string, boolean | null>>();
-  const one = { cOverN0DBHz: new Float64Array(1), esN0DB: new Float64Array(1), ebN0DB: new Float64Array(1), requiredEbN0DB: new Float64Array(1), marginDB: new Float64Array(1), usable: new Uint8Array(1), mode: new Int16Array(1), informationRateBps: new Float64Array(1) };
+  const one = caseColumns(1);
+  /** The rule's columns for the bins of a group, grown as needed (the rule reads and writes the first m entries). */
+  let cols = caseColumns(1024);
 
   for (const sat of data.satellites) {
     const li = sat.linkNames.indexOf(change.link);
@@ -512,7 +512,7 @@ export function whatIfSummaryDetail(data: WhatIfSummaryData, change: WhatIfChang
       if (link !== li || !ruleOf(series)) { c += nCells; continue; }
       // Each bin's steps taken as spread evenly across it: the rule at SUB points across the bin, each a SUB-th of its steps.
       const m = nCells * SUB;
-      const cols = { cOverN0DBHz: new Float64Array(m), esN0DB: new Float64Array(m), ebN0DB: new Float64Array(m), requiredEbN0DB: new Float64Array(m), marginDB: new Float64Array(m), usable: new Uint8Array(m), mode: new Int16Array(m), informationRateBps: new Float64Array(m) };
+      if (cols.usable.length < m) cols = caseColumns(m);
       for (let e = 0; e < nCells; e++) for (let u = 0; u < SUB; u++) cols.cOverN0DBHz[e * SUB + u] = (cellCn[c + e] + (u + 0.5) / SUB - 0.5) * binDB + shift;
       applyCaseRule(ruleOf(series)!, cols, m, false);
       const sum = sumsOf(series)[ci][day];

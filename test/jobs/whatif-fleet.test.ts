@@ -14,7 +14,7 @@ import { parse, stringify } from 'yaml';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DailyRow } from '../../src/analysis/types.js';
 import { decodeWhatIfPayload, whatIf, type WhatIfData, type WhatIfPayload, type WhatIfResult } from '../../src/analysis/whatIf.js';
-import { SUMMARY_CN0_BIN_DB, SUMMARY_THRESHOLD_QUANTUM_DB, summariseWhatIf, whatIfSummaryDetail, type WhatIfSummaryData } from '../../src/analysis/whatIfSummary.js';
+import { summariseWhatIfData, whatIfSummaryDetail } from '../../src/analysis/whatIfSummary.js';
 import { runScenario } from '../../src/jobs/run.js';
 import { loadScenario } from '../../src/scenario/index.js';
 import { removeTempDirs, tempDir } from './helpers.js';
@@ -82,17 +82,7 @@ describe('what-if of a six-satellite fleet sharing link names (one day)', () => 
   });
 
   it('the long-window summary of the same columns: the same sums', () => {
-    const sum: WhatIfSummaryData = {
-      kind: 'summary', startS: data.startS, endS: data.endS, stepS: data.stepS, weather: data.weather, policy: data.policy,
-      thresholdQuantumDB: SUMMARY_THRESHOLD_QUANTUM_DB, elevationBinDeg: 1, cn0BinDB: SUMMARY_CN0_BIN_DB,
-      satellites: data.satellites.map((s) => ({
-        ...s,
-        summary: summariseWhatIf({
-          startS: data.startS, endS: data.endS, stepS: data.stepS, nCases: data.weather.length, elevationQuantumDeg: data.elevationQuantumDeg, cn0QuantumDB: data.cn0QuantumDB,
-          linkNames: s.linkNames, stations: s.stations, passes: s.passes, parts: s.parts, elevation: s.elevation, cn0: s.cn0,
-        }),
-      })),
-    };
+    const sum = summariseWhatIfData(data);
     expectSums(whatIfSummaryDetail(sum, { link: 's-band', eirp_delta_db: 3 }).result, rerun, 's-band', 0.01);
     expectSums(whatIfSummaryDetail(sum, { link: 'x-band' }).result, daily, 'x-band', 0.01);
   });

@@ -17,7 +17,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DailyRow } from '../../src/analysis/types.js';
 import { decodeWhatIfPayload, encodeIntColumn, whatIf, type WhatIfChange, type WhatIfData, type WhatIfPayload, type WhatIfResult } from '../../src/analysis/whatIf.js';
 import {
-  decodeWhatIfSummaryPayload, encodeWhatIfSummary, SUMMARY_CN0_BIN_DB, SUMMARY_THRESHOLD_QUANTUM_DB, summariseWhatIf, whatIfSummaryDetail, type WhatIfSummaryData, type WhatIfSummaryPayload,
+  decodeWhatIfSummaryPayload, encodeWhatIfSummary, summariseWhatIfData, whatIfSummaryDetail, type WhatIfSummaryData, type WhatIfSummaryPayload,
 } from '../../src/analysis/whatIfSummary.js';
 import { rebuildReportWithNotes } from '../../src/jobs/report.js';
 import { runScenario } from '../../src/jobs/run.js';
@@ -32,21 +32,6 @@ function pageBlock(file: string): WhatIfPayload | WhatIfSummaryPayload {
   const m = readFileSync(file, 'utf8').match(/<script type="application\/json" id="passbudget-whatif-data">(.*?)<\/script>/s);
   if (!m) throw new Error(`${file}: no what-if data block`);
   return JSON.parse(m[1]) as WhatIfPayload | WhatIfSummaryPayload;
-}
-
-/** The exact data's summary, whole satellite at once. */
-function summaryOf(d: WhatIfData): WhatIfSummaryData {
-  return {
-    kind: 'summary', startS: d.startS, endS: d.endS, stepS: d.stepS, weather: d.weather, policy: d.policy, thresholdQuantumDB: SUMMARY_THRESHOLD_QUANTUM_DB,
-    elevationBinDeg: 1, cn0BinDB: SUMMARY_CN0_BIN_DB,
-    satellites: d.satellites.map((s) => ({
-      satellite: s.satellite, linkNames: s.linkNames, stations: s.stations, passes: s.passes,
-      summary: summariseWhatIf({
-        startS: d.startS, endS: d.endS, stepS: d.stepS, nCases: d.weather.length, elevationQuantumDeg: d.elevationQuantumDeg, cn0QuantumDB: d.cn0QuantumDB,
-        linkNames: s.linkNames, stations: s.stations, passes: s.passes, parts: s.parts, elevation: s.elevation, cn0: s.cn0,
-      }),
-    })),
-  };
 }
 
 /** Daily volumes within `tol` of the day's plus 0.5 % of the link's best day, usable passes equal, network and per station. */
@@ -84,7 +69,7 @@ describe('what-if summary against the exact recomputation (two demo days, every 
     const file = writeDemoCopy(tmp, '2d');
     await runScenario(loadScenario(file), { outDir: path.join(tmp, 'out'), quiet: true, steps: false });
     exact = decodeWhatIfPayload(pageBlock(path.join(tmp, 'out', 'report.html')) as WhatIfPayload, fromB64);
-    summary = summaryOf(exact);
+    summary = summariseWhatIfData(exact);
   }, 120_000);
 
   it('with no change, gives the exact figures', () => {
